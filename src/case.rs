@@ -1,0 +1,294 @@
+//! The validated model of one stack: every quantity in SI units (m, kg, N, Pa, s), every
+//! cross-field rule already checked by `input::validate`.
+//!
+//! The engineering core (`section`, `fem`, `modal`, `wind`, ...) only ever sees these types,
+//! never the raw case file, so it can rely on the invariants documented on each field.
+
+use serde::Serialize;
+
+/// One stack design: shell, non-structural masses, foundation, stages, site wind and the
+/// vortex-shedding check settings.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Case {
+    /// Free text from the case file.
+    pub title: String,
+    pub shell: Shell,
+    /// Lining zones; mass only, never stiffness.
+    pub linings: Vec<Lining>,
+    /// Platforms, caps, equipment; present in every stage.
+    pub point_masses: Vec<PointMass>,
+    /// Foundation springs; `None` = fixed base.
+    pub base: Option<BaseSprings>,
+    /// At least one stage.
+    pub stages: Vec<Stage>,
+    pub wind: Wind,
+    pub vortex: Vortex,
+    pub criteria: Criteria,
+    /// Aeroelastic model planning inputs (`[model]`), if given.
+    pub model: Option<ModelSpec>,
+}
+
+/// Beam theory of the shell elements.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub enum BeamTheory {
+    /// Bending + shear deformation (Cowper's coefficient) + rotary inertia.
+    Timoshenko,
+    /// Bending only.
+    EulerBernoulli,
+}
+
+/// The reinforced-concrete shell.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Shell {
+    /// Young's modulus, Pa (> 0).
+    pub elastic_modulus_pa: f64,
+    /// Concrete density, kg/m3 (> 0).
+    pub density_kg_m3: f64,
+    /// Poisson's ratio, 0 <= nu < 0.5.
+    pub poisson_ratio: f64,
+    pub beam: BeamTheory,
+    /// At least two stations; `z_m` strictly increasing from 0; 0 < 2 wall < outer diameter.
+    pub stations: Vec<Station>,
+}
+
+impl Shell {
+    /// Shear modulus G = E / (2 (1 + nu)), Pa.
+    pub fn shear_modulus_pa(&self) -> f64 {
+        self.elastic_modulus_pa / (2.0 * (1.0 + self.poisson_ratio))
+    }
+
+    /// Height of the complete shell, m.
+    pub fn height_m(&self) -> f64 {
+        self.stations.last().map(|s| s.z_m).unwrap_or(0.0)
+    }
+
+    /// Outer diameter and wall thickness at height `z_m` (linear between stations, clamped to
+    /// the ends), m.
+    pub fn geometry_at(&self, z_m: f64) -> (f64, f64) {
+        let st = &self.stations;
+        if z_m <= st[0].z_m {
+            return (st[0].outer_diameter_m, st[0].wall_m);
+        }
+        for w in st.windows(2) {
+            if z_m <= w[1].z_m {
+                let t = (z_m - w[0].z_m) / (w[1].z_m - w[0].z_m);
+                return (
+                    w[0].outer_diameter_m + t * (w[1].outer_diameter_m - w[0].outer_diameter_m),
+                    w[0].wall_m + t * (w[1].wall_m - w[0].wall_m),
+                );
+            }
+        }
+        let last = st[st.len() - 1];
+        (last.outer_diameter_m, last.wall_m)
+    }
+}
+
+/// A shell station; diameter and wall vary linearly between stations.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Station {
+    pub z_m: f64,
+    pub outer_diameter_m: f64,
+    pub wall_m: f64,
+}
+
+/// How a lining zone's mass is given.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub enum LiningMass {
+    /// kg per metre of height.
+    PerLength { mass_per_length_kg_m: f64 },
+    /// kg per m2 of the shell's inner face: m = value * pi * (D - 2 t).
+    PerArea { mass_per_area_kg_m2: f64 },
+    /// A layer: m = rho * pi * (D - 2 t - 2 gap - t_l) * t_l.
+    Layer {
+        thickness_m: f64,
+        density_kg_m3: f64,
+        gap_m: f64,
+    },
+}
+
+/// A lining zone between two heights (inside the shell, from < to).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Lining {
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    pub mass: LiningMass,
+}
+
+impl Lining {
+    /// Lining mass per metre of height at a section with outer diameter `d_m` and wall `t_m`,
+    /// kg/m. Zero outside `[from_z_m, to_z_m]` is the caller's business.
+    pub fn mass_per_length_kg_m(&self, d_m: f64, t_m: f64) -> f64 {
+        match self.mass {
+            LiningMass::PerLength {
+                mass_per_length_kg_m,
+            } => mass_per_length_kg_m,
+            LiningMass::PerArea {
+                mass_per_area_kg_m2,
+            } => mass_per_area_kg_m2 * std::f64::consts::PI * (d_m - 2.0 * t_m),
+            LiningMass::Layer {
+                thickness_m,
+                density_kg_m3,
+                gap_m,
+            } => {
+                density_kg_m3
+                    * std::f64::consts::PI
+                    * (d_m - 2.0 * t_m - 2.0 * gap_m - thickness_m)
+                    * thickness_m
+            }
+        }
+    }
+}
+
+/// A concentrated mass (translational only).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PointMass {
+    pub z_m: f64,
+    pub mass_kg: f64,
+    pub label: String,
+}
+
+/// Foundation springs at z = 0. `None` in a component = rigid in that direction.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct BaseSprings {
+    /// N m / rad.
+    pub rotational_nm_per_rad: Option<f64>,
+    /// N / m.
+    pub lateral_n_per_m: Option<f64>,
+}
+
+/// A construction stage (or the finished state).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Stage {
+    pub name: String,
+    /// Whether the lining zones are installed.
+    pub lining: bool,
+    /// Multiplier on E and G (cracked section), > 0.
+    pub stiffness_factor: f64,
+    /// Shell built only up to this height, m (inside (0, H]); `None` = complete.
+    pub top_z_m: Option<f64>,
+}
+
+impl Stage {
+    /// Height of the shell in this stage, m.
+    pub fn height_m(&self, shell: &Shell) -> f64 {
+        self.top_z_m.unwrap_or_else(|| shell.height_m())
+    }
+}
+
+/// Mean wind profile shape.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub enum Profile {
+    /// v(z) = v_ref (z / z_ref)^exponent.
+    Power { exponent: f64 },
+    /// EN 1991-1-4 4.3 logarithmic law, c_r(z) = k_r ln(max(z, z_min) / z0), scaled so that
+    /// v(z_ref) = v_ref.
+    Log { roughness_m: f64, z_min_m: f64 },
+}
+
+/// Site wind.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Wind {
+    /// Mean (10-min) wind speed at `reference_height_m`, m/s.
+    pub reference_speed_m_s: f64,
+    pub reference_height_m: f64,
+    pub profile: Profile,
+    pub air_density_kg_m3: f64,
+    pub kinematic_viscosity_m2_s: f64,
+}
+
+/// Vortex-shedding method that governs the verdict (the others are reported alongside).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub enum VortexMethod {
+    /// EN 1991-1-4 Annex E approach 1 (E.1.5.2).
+    En1991E1,
+    /// EN 1991-1-4 Annex E approach 2 (E.1.5.3).
+    En1991E2,
+    /// GB 50009-2012 Appendix H.1.
+    Gb50009H1,
+}
+
+impl VortexMethod {
+    /// The case-file spelling.
+    pub fn key(self) -> &'static str {
+        match self {
+            VortexMethod::En1991E1 => "en1991-e1",
+            VortexMethod::En1991E2 => "en1991-e2",
+            VortexMethod::Gb50009H1 => "gb50009-h1",
+        }
+    }
+}
+
+/// Arrangement of a group of identical stacks.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub enum Arrangement {
+    InLine,
+}
+
+/// Neighbouring identical stacks.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Group {
+    /// Number of stacks in the group (>= 2).
+    pub count: u32,
+    /// Centre-to-centre spacing, m (> 0).
+    pub spacing_m: f64,
+    pub arrangement: Arrangement,
+}
+
+/// Vortex-shedding check settings.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Vortex {
+    pub method: VortexMethod,
+    /// User override of the Strouhal number; `None` = method default.
+    pub strouhal: Option<f64>,
+    /// Structural logarithmic decrement delta_s (used in the Scruton number).
+    pub log_decrement: f64,
+    /// Critical damping ratio for GB 50009 App. H; `None` = log_decrement / (2 pi).
+    pub damping_ratio: Option<f64>,
+    /// How many modes to check (>= 1).
+    pub modes: usize,
+    pub design_life_years: f64,
+    pub group: Option<Group>,
+}
+
+/// User acceptance criteria; all optional.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+pub struct Criteria {
+    /// Peak across-wind tip amplitude limit, m.
+    pub tip_amplitude_m: Option<f64>,
+    /// Peak across-wind tip amplitude limit as a fraction of the top diameter.
+    pub tip_amplitude_per_diameter: Option<f64>,
+    /// Extreme-fibre stress limit, Pa.
+    pub stress_pa: Option<f64>,
+}
+
+impl Criteria {
+    /// True when no criterion is set.
+    pub fn is_empty(&self) -> bool {
+        self.tip_amplitude_m.is_none()
+            && self.tip_amplitude_per_diameter.is_none()
+            && self.stress_pa.is_none()
+    }
+}
+
+/// Aeroelastic model planning inputs (`[model]`).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct ModelSpec {
+    /// k_l = prototype / model length; `None` = propose from the tunnel size.
+    pub length_scale: Option<f64>,
+    /// Model material Young's modulus, Pa.
+    pub elastic_modulus_pa: f64,
+    /// Model material density, kg/m3.
+    pub density_kg_m3: f64,
+    /// Model material Poisson's ratio.
+    pub poisson_ratio: f64,
+    /// Thinnest wall the model maker can produce, m.
+    pub min_wall_m: Option<f64>,
+    /// Tunnel test-section width and height, m.
+    pub tunnel_width_m: Option<f64>,
+    pub tunnel_height_m: Option<f64>,
+    /// Largest model frontal area / test-section area.
+    pub max_blockage: f64,
+    /// Usable tunnel speed range, m/s.
+    pub tunnel_speed_min_m_s: Option<f64>,
+    pub tunnel_speed_max_m_s: Option<f64>,
+}

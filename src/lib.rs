@@ -1,0 +1,18 @@
+//! stackwake: vortex-shedding lock-in screening of tall reinforced-concrete chimneys.
+//!
+//! Data flow (one direction): `input` (case file -> validated [`case::Case`]) -> [`section`]
+//! (annulus properties along the height) -> [`fem`] (Hermite beam elements, exact O(N)
+//! eigen-solver) -> [`modal`] (modes per construction stage) -> `wind` (EN 1991-1-4 Annex E,
+//! GB 50009 App. H) -> `report` (CSV, SVG, HTML, JSON). Only `input` and `report` touch files.
+//!
+//! All quantities are SI inside; units are in every field name.
+//!
+//! This is a screening tool: results must be checked by a licensed engineer against the local
+//! code and the governing standard's National Annex. No warranty.
+
+pub mod case;
+pub mod error;
+pub mod fem;
+pub mod input;
+pub mod modal;
+pub mod section;
