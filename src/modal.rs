@@ -97,6 +97,8 @@ pub struct CompletenessCheck {
     pub max_relative_residual: f64,
     /// Subspace iterations used.
     pub iterations: usize,
+    /// Sign changes of each mode's displacement (k - 1 for mode k of a cantilever).
+    pub sign_changes: Vec<usize>,
 }
 
 /// Modal analysis of one stage.
@@ -126,12 +128,132 @@ pub fn analyse_stage(
     options: ModalOptions,
 ) -> Result<StageModes, ModalError> {
     let beam = BeamModel::build(case, stage, options.min_elements, options.modes);
-    let solution =
-        fem::solve_lowest(&beam, options.modes).map_err(|source| ModalError::Solver {
-            stage: stage.name.clone(),
-            source,
-        })?;
-    Ok(fem::to_stage_modes(case, stage, &beam, solution))
+    let solution = fem::lowest_modes(&beam, options.modes).map_err(|source| ModalError::Solver {
+        stage: stage.name.clone(),
+        source,
+    })?;
+    Ok(stage_modes(stage, &beam, &solution))
+}
+
+/// Number of sign changes of a displacement shape, ignoring values below 1e-9 of the
+/// maximum (nodes exactly at zero).
+pub fn sign_changes(displacement: &[f64]) -> usize {
+    let mut changes = 0;
+    let mut last = 0.0f64;
+    for &w in displacement {
+        if w.abs() < 1e-9 {
+            continue;
+        }
+        if last != 0.0 && w.signum() != last.signum() {
+            changes += 1;
+        }
+        last = w;
+    }
+    changes
+}
+
+/// The nodal model data of a stage, for the wind module and the reports.
+pub fn stage_model(beam: &BeamModel) -> StageModel {
+    let n = beam.z_m.len();
+    let mut model = StageModel {
+        z_m: beam.z_m.clone(),
+        outer_diameter_m: vec![0.0; n],
+        wall_m: vec![0.0; n],
+        shell_mass_kg_m: vec![0.0; n],
+        lining_mass_kg_m: vec![0.0; n],
+        point_masses: beam.point_masses.clone(),
+        second_moment_m4: vec![0.0; n],
+    };
+    for i in 0..n {
+        // Geometry is continuous; take it from the element above (below for the top node).
+        let (data, s) = if i + 1 < n {
+            (&beam.element_data[i], 0.0)
+        } else {
+            let d = &beam.element_data[i - 1];
+            (d, d.length_m)
+        };
+        let a = data.annulus(s);
+        model.outer_diameter_m[i] = a.outer_diameter_m;
+        model.wall_m[i] = a.wall_m;
+        model.shell_mass_kg_m[i] = data.shell_mass_kg_m(s);
+        model.second_moment_m4[i] = a.second_moment_m4();
+        let above = if i + 1 < n { beam.element_data[i].lining_mass_kg_m(0.0) } else { 0.0 };
+        let below = if i > 0 {
+            let d = &beam.element_data[i - 1];
+            d.lining_mass_kg_m(d.length_m)
+        } else {
+            0.0
+        };
+        model.lining_mass_kg_m[i] = above.max(below);
+    }
+    model
+}
+
+/// Integrals int m w^2 dz (distributed + point masses) and int w^2 dz of a nodal dof vector
+/// over the exact element shapes.
+fn shape_integrals(beam: &BeamModel, u: &[f64]) -> (f64, f64) {
+    let mut m_w2 = 0.0;
+    let mut w2 = 0.0;
+    for (e, (el, data)) in beam.elements.iter().zip(&beam.element_data).enumerate() {
+        let ue = [u[2 * e], u[2 * e + 1], u[2 * e + 2], u[2 * e + 3]];
+        let samples = el.shape_samples(data);
+        for ((s, wt), nw) in samples.s_m.iter().zip(&samples.weight_m).zip(&samples.displacement_shapes) {
+            let w: f64 = (0..4).map(|k| nw[k] * ue[k]).sum();
+            let m = data.shell_mass_kg_m(*s) + data.lining_mass_kg_m(*s);
+            m_w2 += wt * m * w * w;
+            w2 += wt * w * w;
+        }
+    }
+    for &(i, kg) in &beam.point_masses {
+        m_w2 += kg * u[2 * i] * u[2 * i];
+    }
+    (m_w2, w2)
+}
+
+/// Converts an FE solution into reported modes.
+pub fn stage_modes(stage: &Stage, beam: &BeamModel, solution: &fem::Solution) -> StageModes {
+    let n_nodes = beam.z_m.len();
+    let mut modes = Vec::with_capacity(solution.eigenvalues.len());
+    let mut changes = Vec::new();
+    for (k, &lambda) in solution.eigenvalues.iter().enumerate() {
+        let col = solution.vectors.column(k);
+        let (mut peak, mut peak_abs) = (0.0f64, 0.0f64);
+        for i in 0..n_nodes {
+            if col[2 * i].abs() > peak_abs {
+                peak_abs = col[2 * i].abs();
+                peak = col[2 * i];
+            }
+        }
+        let scale = 1.0 / peak;
+        let u: Vec<f64> = col.iter().map(|v| v * scale).collect();
+        let displacement: Vec<f64> = (0..n_nodes).map(|i| u[2 * i]).collect();
+        let rotation_per_m: Vec<f64> = (0..n_nodes).map(|i| u[2 * i + 1]).collect();
+        let (m_w2, w2) = shape_integrals(beam, &u);
+        changes.push(sign_changes(&displacement));
+        modes.push(Mode {
+            number: k + 1,
+            frequency_hz: lambda.sqrt() / (2.0 * std::f64::consts::PI),
+            displacement,
+            rotation_per_m,
+            // phi is M-orthonormal, so the scaled shape has generalised mass scale^2.
+            modal_mass_kg: scale * scale,
+            equivalent_mass_kg_m: m_w2 / w2,
+        });
+    }
+    StageModes {
+        stage: stage.clone(),
+        model: stage_model(beam),
+        modes,
+        check: CompletenessCheck {
+            sturm_count: solution.sturm_count,
+            shift_rad2_s2: solution.shift,
+            modes_reported: solution.eigenvalues.len(),
+            max_relative_residual: solution.max_relative_residual,
+            iterations: solution.iterations,
+            sign_changes: changes,
+        },
+        elements: beam.elements.len(),
+    }
 }
 
 /// Modal analysis of every stage of the case, in case order.
