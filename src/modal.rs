@@ -195,17 +195,17 @@ fn shape_integrals(beam: &BeamModel, u: &[f64]) -> (f64, f64) {
     let mut m_w2 = 0.0;
     let mut w2 = 0.0;
     for (e, (el, data)) in beam.elements.iter().zip(&beam.element_data).enumerate() {
-        let ue = [u[2 * e], u[2 * e + 1], u[2 * e + 2], u[2 * e + 3]];
+        let ue = &u[4 * e..4 * e + 6];
         let samples = el.shape_samples(data);
         for ((s, wt), nw) in samples.s_m.iter().zip(&samples.weight_m).zip(&samples.displacement_shapes) {
-            let w: f64 = (0..4).map(|k| nw[k] * ue[k]).sum();
+            let w: f64 = (0..6).map(|k| nw[k] * ue[k]).sum();
             let m = data.shell_mass_kg_m(*s) + data.lining_mass_kg_m(*s);
             m_w2 += wt * m * w * w;
             w2 += wt * w * w;
         }
     }
     for &(i, kg) in &beam.point_masses {
-        m_w2 += kg * u[2 * i] * u[2 * i];
+        m_w2 += kg * u[4 * i] * u[4 * i];
     }
     (m_w2, w2)
 }
@@ -219,15 +219,15 @@ pub fn stage_modes(stage: &Stage, beam: &BeamModel, solution: &fem::Solution) ->
         let col = solution.vectors.column(k);
         let (mut peak, mut peak_abs) = (0.0f64, 0.0f64);
         for i in 0..n_nodes {
-            if col[2 * i].abs() > peak_abs {
-                peak_abs = col[2 * i].abs();
-                peak = col[2 * i];
+            if col[4 * i].abs() > peak_abs {
+                peak_abs = col[4 * i].abs();
+                peak = col[4 * i];
             }
         }
         let scale = 1.0 / peak;
         let u: Vec<f64> = col.iter().map(|v| v * scale).collect();
-        let displacement: Vec<f64> = (0..n_nodes).map(|i| u[2 * i]).collect();
-        let rotation_per_m: Vec<f64> = (0..n_nodes).map(|i| u[2 * i + 1]).collect();
+        let displacement: Vec<f64> = (0..n_nodes).map(|i| u[4 * i]).collect();
+        let rotation_per_m: Vec<f64> = (0..n_nodes).map(|i| u[4 * i + 1]).collect();
         let (m_w2, w2) = shape_integrals(beam, &u);
         changes.push(sign_changes(&displacement));
         modes.push(Mode {

@@ -1,8 +1,8 @@
-//! Symmetric banded matrices with half-bandwidth 3 (two dofs per node, neighbouring nodes
-//! coupled): the product with a vector and the Sturm count of an LDL^T factorisation.
+//! Symmetric banded matrices with half-bandwidth 5 (per element the dofs w_a, theta_a, q1,
+//! q2, w_b, theta_b are contiguous): the product with a vector and the Sturm count of an LDL^T factorisation.
 
 /// Half-bandwidth (number of super-diagonals) of a two-dof-per-node beam matrix.
-pub const HALF_BAND: usize = 3;
+pub const HALF_BAND: usize = 5;
 
 /// A symmetric band matrix: `rows[i][k]` = A[i][i + k], k = 0..=HALF_BAND.
 #[derive(Debug, Clone, PartialEq)]
@@ -41,14 +41,15 @@ impl SymBand {
 
     /// Replaces row and column i by those of the identity (a removed dof).
     pub fn set_identity_row(&mut self, i: usize) {
-        self.rows[i] = [1.0, 0.0, 0.0, 0.0];
+        self.rows[i] = [0.0; HALF_BAND + 1];
+        self.rows[i][0] = 1.0;
         for k in 1..=HALF_BAND.min(i) {
             self.rows[i - k][k] = 0.0;
         }
     }
 
-    /// Adds a 4x4 element matrix whose first dof is `first`.
-    pub fn add_element(&mut self, first: usize, m: &[[f64; 4]; 4]) {
+    /// Adds a 6x6 element matrix whose first dof is `first`.
+    pub fn add_element(&mut self, first: usize, m: &[[f64; 6]; 6]) {
         for (i, row) in m.iter().enumerate() {
             for (j, v) in row.iter().enumerate().skip(i) {
                 self.rows[first + i][j - i] += v;
@@ -136,7 +137,7 @@ mod tests {
         let n = 9;
         let mut a = SymBand::zeros(n);
         for i in 0..n {
-            for j in i..n.min(i + 4) {
+            for j in i..n.min(i + HALF_BAND + 1) {
                 a.add(i, j, (1 + i * 7 + j * 3) as f64 * if i == j { 10.0 } else { 0.3 });
             }
         }

@@ -15,6 +15,17 @@
 //! [`crate::fem::flexibility`]. For a uniform Euler-Bernoulli element this stiffness is the
 //! classical Hermite-cubic one and the shapes below are the Hermite cubics; for a uniform
 //! Timoshenko element it is the "interdependent interpolation" element (exact static shapes).
+//!
+//! Each element also carries two internal "bubble" dofs: the exact static solutions of the
+//! element clamped at both ends under a uniform lateral load (q1, m) and under a uniform
+//! distributed moment (q2, rad). They vanish with their slopes at both nodes and are
+//! energy-orthogonal to the end-load shapes (Betti), so K is block-diagonal in them (a 2x2
+//! block per element) and K^-1 remains an O(N) recursion. Without them the shear force is
+//! constant in an element and translational and rotary inertia loads are not represented, so
+//! Timoshenko frequencies converge only as h^2; with them both theories converge at least as
+//! h^4.
+//! Element dofs are ordered (w_a, theta_a, q1, q2, w_b, theta_b).
+//!
 //! Integrals over the taper use Gauss-Legendre rules whose order grows with the element's
 //! property variation, so they are exact to rounding, not midpoint approximations.
 
@@ -41,14 +52,16 @@ struct Compliance {
     f0: f64,
     f1: f64,
     f2: f64,
+    f3: f64,
     g: f64,
+    g1: f64,
 }
 
 /// Number of Gauss points for the compliance integrals: a Gauss rule of n points on a
 /// function of relative variation eps has error ~ eps^(2n); aim at 1e-17.
 fn compliance_points(variation: f64) -> usize {
     if variation <= 1e-14 {
-        return 2; // F2 integrates s^2 exactly with 2 points
+        return 2; // F3 integrates s^3 exactly with 2 points
     }
     let digits = -variation.log10();
     let n = (17.0 / (2.0 * digits.max(0.3))).ceil() as usize + 1;
@@ -66,9 +79,11 @@ fn compliance_at<P: ElementProperties>(p: &P, s_m: f64, points: usize) -> Compli
         c.f0 += wt * inv_ei;
         c.f1 += wt * u * inv_ei;
         c.f2 += wt * u * u * inv_ei;
+        c.f3 += wt * u * u * u * inv_ei;
         let kga = p.shear_stiffness_n(u);
         if kga.is_finite() {
             c.g += wt / kga;
+            c.g1 += wt * u / kga;
         }
     }
     c
@@ -95,10 +110,15 @@ pub struct Element {
     /// Flexibility of the element clamped at its lower node: [f_ww, f_wt, f_tt] with
     /// (w_rel, theta_rel) = [[f_ww, f_wt], [f_wt, f_tt]] (P, C); units m/N, 1/N, 1/(N m).
     pub flexibility: [f64; 3],
-    /// Element stiffness (w_a, theta_a, w_b, theta_b).
-    pub stiffness: [[f64; 4]; 4],
-    /// Consistent element mass (w_a, theta_a, w_b, theta_b).
-    pub mass: [[f64; 4]; 4],
+    /// Per bubble: (M0, V0) of the clamped-clamped solution and the scale that gives it unit
+    /// mean deflection (bubble 1) or unit mean rotation (bubble 2).
+    bubbles: [[f64; 3]; 2],
+    /// Inverse of the 2x2 bubble stiffness block (symmetric: [b11, b12, b22]).
+    pub bubble_flexibility: [f64; 3],
+    /// Element stiffness (w_a, theta_a, q1, q2, w_b, theta_b); bubbles uncoupled from nodes.
+    pub stiffness: [[f64; 6]; 6],
+    /// Consistent element mass (w_a, theta_a, q1, q2, w_b, theta_b).
+    pub mass: [[f64; 6]; 6],
 }
 
 /// The 2x4 map R from nodal dofs to the end loads (P, C) at the upper node: R = F^-1 T with
@@ -116,6 +136,35 @@ fn end_load_map(flex: [f64; 3], h: f64) -> [[f64; 4]; 2] {
     }
     r
 }
+
+/// Clamped-clamped element under a uniform lateral load q and distributed moment mu:
+/// V = V0 - q s, M = M0 - V0 s + q s^2/2 - mu s. Returns (M0, V0) from theta(h) = w(h) = 0.
+fn bubble_end_values(end: Compliance, h: f64, q: f64, mu: f64) -> (f64, f64) {
+    // theta(h): M0 F0 - V0 F1 = -q F2/2 + mu F1
+    // w(h):     M0 (h F0 - F1) - V0 (h F1 - F2 - G) = -q (h F2 - F3)/2 + mu (h F1 - F2) + q G1
+    let a11 = end.f0;
+    let a12 = -end.f1;
+    let b1 = -0.5 * q * end.f2 + mu * end.f1;
+    let a21 = h * end.f0 - end.f1;
+    let a22 = -(h * end.f1 - end.f2 - end.g);
+    let b2 = -0.5 * q * (h * end.f2 - end.f3) + mu * (h * end.f1 - end.f2) + q * end.g1;
+    let det = a11 * a22 - a12 * a21;
+    ((b1 * a22 - a12 * b2) / det, (a11 * b2 - a21 * b1) / det)
+}
+
+/// Deflection and rotation at s of the clamped-clamped solution for (q, mu) with end values
+/// (M0, V0) (not yet scaled).
+fn bubble_at(c: Compliance, s: f64, q: f64, mu: f64, m0: f64, v0: f64) -> (f64, f64) {
+    let theta = m0 * c.f0 - v0 * c.f1 + 0.5 * q * c.f2 - mu * c.f1;
+    let w = m0 * (s * c.f0 - c.f1) - v0 * (s * c.f1 - c.f2) + 0.5 * q * (s * c.f2 - c.f3)
+        - mu * (s * c.f1 - c.f2)
+        + v0 * c.g
+        - q * c.g1;
+    (w, theta)
+}
+
+/// The two bubbles' loads (q, mu): uniform lateral load, uniform distributed moment.
+const BUBBLE_LOADS: [(f64, f64); 2] = [(1.0, 0.0), (0.0, 1.0)];
 
 /// Exact static shape functions at s: (N_w, N_theta), each over (w_a, theta_a, w_b, theta_b).
 fn shapes_at(c: Compliance, s: f64, h: f64, r: &[[f64; 4]; 2]) -> ([f64; 4], [f64; 4]) {
@@ -140,7 +189,8 @@ fn shapes_at(c: Compliance, s: f64, h: f64, r: &[[f64; 4]; 2]) -> ([f64; 4], [f6
 pub struct ShapeSamples {
     pub s_m: Vec<f64>,
     pub weight_m: Vec<f64>,
-    pub displacement_shapes: Vec<[f64; 4]>,
+    /// N_w over (w_a, theta_a, q1, q2, w_b, theta_b).
+    pub displacement_shapes: Vec<[f64; 6]>,
 }
 
 impl Element {
@@ -157,32 +207,74 @@ impl Element {
         let r = end_load_map(flexibility, h);
         // K = T^T F^-1 T = T^T R.
         let t = [[-1.0, -h, 1.0, 0.0], [0.0, -1.0, 0.0, 1.0]];
-        let mut stiffness = [[0.0; 4]; 4];
+        let mut k4 = [[0.0; 4]; 4];
         for i in 0..4 {
             for j in 0..4 {
-                stiffness[i][j] = t[0][i] * r[0][j] + t[1][i] * r[1][j];
+                k4[i][j] = t[0][i] * r[0][j] + t[1][i] * r[1][j];
             }
         }
-        let mut mass = [[0.0; 4]; 4];
+        let ends = BUBBLE_LOADS.map(|(q, mu)| bubble_end_values(end, h, q, mu));
         let (xs, ws) = gauss::rule(mass_points(variation));
+        // work[i][j] = int (q_i w_j + mu_i theta_j) ds: the bubble stiffness block before
+        // scaling (symmetric by Betti); scale[j] = mean deflection (j = 0) or rotation (j = 1).
+        let mut work = [[0.0; 2]; 2];
+        let mut samples = Vec::with_capacity(xs.len());
         for (x, w) in xs.iter().zip(ws) {
             let s = 0.5 * h * (1.0 + x);
             let wt = 0.5 * h * w;
             let c = compliance_at(p, s, np);
             let (nw, nt) = shapes_at(c, s, h, &r);
+            let mut bw = [0.0; 2];
+            let mut bt = [0.0; 2];
+            for j in 0..2 {
+                let (q, mu) = BUBBLE_LOADS[j];
+                (bw[j], bt[j]) = bubble_at(c, s, q, mu, ends[j].0, ends[j].1);
+            }
+            for (i, (q, mu)) in BUBBLE_LOADS.iter().enumerate() {
+                for j in 0..2 {
+                    work[i][j] += wt * (q * bw[j] + mu * bt[j]);
+                }
+            }
+            samples.push((s, wt, nw, nt, bw, bt));
+        }
+        // Euler-Bernoulli: a uniform distributed moment on a clamped-clamped element leaves
+        // M = 0, so the moment bubble vanishes; keep its dof as an inert unit spring with no
+        // mass (it then stays zero and adds one positive pivot to the Sturm count).
+        let moment_bubble = work[1][1] > 1e-14 * work[0][0] * h * h;
+        let scale = [work[0][0] / h, if moment_bubble { work[1][1] / h } else { f64::INFINITY }];
+        let k11 = work[0][0] / (scale[0] * scale[0]);
+        let (k12, k22) = if moment_bubble {
+            (0.5 * (work[0][1] + work[1][0]) / (scale[0] * scale[1]), work[1][1] / (scale[1] * scale[1]))
+        } else {
+            (0.0, 1.0)
+        };
+        let det_b = k11 * k22 - k12 * k12;
+        let bubble_flexibility = [k22 / det_b, -k12 / det_b, k11 / det_b];
+        let mut mass = [[0.0; 6]; 6];
+        for (s, wt, nw, nt, bw, bt) in samples {
+            let sw = [nw[0], nw[1], bw[0] / scale[0], bw[1] / scale[1], nw[2], nw[3]];
+            let st = [nt[0], nt[1], bt[0] / scale[0], bt[1] / scale[1], nt[2], nt[3]];
             let m = p.mass_per_length_kg_m(s) * wt;
             let j_rot = p.rotary_inertia_kg_m(s) * wt;
-            for i in 0..4 {
-                for j in 0..4 {
-                    mass[i][j] += m * nw[i] * nw[j] + j_rot * nt[i] * nt[j];
+            for i in 0..6 {
+                for j in 0..6 {
+                    mass[i][j] += m * sw[i] * sw[j] + j_rot * st[i] * st[j];
                 }
             }
         }
+        let mut stiffness = [[0.0; 6]; 6];
+        let map = [0, 1, 4, 5];
         for i in 0..4 {
+            for j in 0..4 {
+                stiffness[map[i]][map[j]] = 0.5 * (k4[i][j] + k4[j][i]);
+            }
+        }
+        stiffness[2][2] = k11;
+        stiffness[2][3] = k12;
+        stiffness[3][2] = k12;
+        stiffness[3][3] = k22;
+        for i in 0..6 {
             for j in 0..i {
-                let avg = 0.5 * (stiffness[i][j] + stiffness[j][i]);
-                stiffness[i][j] = avg;
-                stiffness[j][i] = avg;
                 let avg = 0.5 * (mass[i][j] + mass[j][i]);
                 mass[i][j] = avg;
                 mass[j][i] = avg;
@@ -191,6 +283,11 @@ impl Element {
         Element {
             length_m: h,
             flexibility,
+            bubbles: [
+                [ends[0].0, ends[0].1, scale[0]],
+                [ends[1].0, ends[1].1, scale[1]],
+            ],
+            bubble_flexibility,
             stiffness,
             mass,
         }
@@ -214,7 +311,13 @@ impl Element {
             let c = compliance_at(p, s, np);
             out.s_m.push(s);
             out.weight_m.push(0.5 * h * w);
-            out.displacement_shapes.push(shapes_at(c, s, h, &r).0);
+            let nw = shapes_at(c, s, h, &r).0;
+            let mut bw = [0.0; 2];
+            for (j, (q, mu)) in BUBBLE_LOADS.iter().enumerate() {
+                let [m0, v0, scale] = self.bubbles[j];
+                bw[j] = bubble_at(c, s, *q, *mu, m0, v0).0 / scale;
+            }
+            out.displacement_shapes.push([nw[0], nw[1], bw[0], bw[1], nw[2], nw[3]]);
         }
         out
     }
@@ -281,12 +384,17 @@ mod tests {
         let e = Element::integrate(&p, h);
         let k = hermite_stiffness(p.ei, h);
         let m = hermite_mass(p.m, h);
+        let map = [0, 1, 4, 5];
         for i in 0..4 {
             for j in 0..4 {
-                assert!((e.stiffness[i][j] - k[i][j]).abs() <= 1e-12 * k[0][0], "K[{i}][{j}]");
-                assert!((e.mass[i][j] - m[i][j]).abs() <= 1e-12 * m[0][0], "M[{i}][{j}]");
+                let (a, b) = (map[i], map[j]);
+                assert!((e.stiffness[a][b] - k[i][j]).abs() <= 1e-12 * k[0][0], "K[{i}][{j}]");
+                assert!((e.mass[a][b] - m[i][j]).abs() <= 1e-12 * m[0][0], "M[{i}][{j}]");
             }
         }
+        // The load bubble of a uniform Euler-Bernoulli element is w = s^2 (h - s)^2 / (24 EI),
+        // mean h^4 / (720 EI), so k_q1 = 720 EI / h^3 (direct integration).
+        assert_relative_eq!(e.stiffness[2][2], 720.0 * p.ei / h.powi(3), max_relative = 1e-12);
     }
 
     #[test]
@@ -299,7 +407,11 @@ mod tests {
         let e = Element::integrate(&p, h);
         assert_relative_eq!(e.stiffness[0][0], 12.0 * p.ei / ((1.0 + phi) * h.powi(3)), max_relative = 1e-13);
         assert_relative_eq!(e.stiffness[1][1], (4.0 + phi) * p.ei / ((1.0 + phi) * h), max_relative = 1e-13);
-        assert_relative_eq!(e.stiffness[1][3], (2.0 - phi) * p.ei / ((1.0 + phi) * h), max_relative = 1e-13);
+        assert_relative_eq!(e.stiffness[1][5], (2.0 - phi) * p.ei / ((1.0 + phi) * h), max_relative = 1e-13);
+        for k in [0, 1, 4, 5] {
+            assert_eq!(e.stiffness[2][k], 0.0);
+            assert_eq!(e.stiffness[3][k], 0.0);
+        }
     }
 
     #[test]
@@ -308,10 +420,10 @@ mod tests {
         let p = Uniform { ei: 1.0e9, kga: 5.0e8, m: 300.0, j: 20.0 };
         let h = 1.7;
         let e = Element::integrate(&p, h);
-        let u = [1.0, 0.0, 1.0, 0.0];
+        let u = [1.0, 0.0, 0.0, 0.0, 1.0, 0.0];
         let mut total = 0.0;
-        for i in 0..4 {
-            for j in 0..4 {
+        for i in 0..6 {
+            for j in 0..6 {
                 total += u[i] * e.mass[i][j] * u[j];
             }
         }

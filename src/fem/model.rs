@@ -5,8 +5,9 @@
 //! segment between such nodes split evenly so that the total element count reaches the
 //! requested minimum (elements spread in proportion to segment length).
 //!
-//! DOF numbering: node i (z ascending from the base) owns dofs 2i (w, m) and 2i + 1
-//! (theta, rad). A rigid base direction is a removed dof (kept in the vectors as a zero).
+//! DOF numbering: node i (z ascending from the base) owns dofs 4i (w, m) and 4i + 1
+//! (theta, rad); element e's bubble amplitudes are dofs 4e + 2 (m) and 4e + 3 (rad). A rigid
+//! base direction is a removed dof (kept in the vectors as a zero).
 
 use crate::case::{BeamTheory, Case, Lining, LiningMass, Stage};
 use crate::section::Annulus;
@@ -165,8 +166,8 @@ impl BeamModel {
         let n_nodes = z_m.len();
         let mut element_data = Vec::with_capacity(n_nodes - 1);
         let mut elements = Vec::with_capacity(n_nodes - 1);
-        let mut mass = SymBand::zeros(2 * n_nodes);
-        let mut stiffness = SymBand::zeros(2 * n_nodes);
+        let mut mass = SymBand::zeros(4 * n_nodes - 2);
+        let mut stiffness = SymBand::zeros(4 * n_nodes - 2);
         for (e, w) in z_m.windows(2).enumerate() {
             let (d0, t0) = shell.geometry_at(w[0]);
             let (d1, t1) = shell.geometry_at(w[1]);
@@ -195,8 +196,8 @@ impl BeamModel {
                 lining_coefficients,
             };
             let el = Element::integrate(&data, data.length_m);
-            mass.add_element(2 * e, &el.mass);
-            stiffness.add_element(2 * e, &el.stiffness);
+            mass.add_element(4 * e, &el.mass);
+            stiffness.add_element(4 * e, &el.stiffness);
             element_data.push(data);
             elements.push(el);
         }
@@ -204,7 +205,7 @@ impl BeamModel {
         let tol = 1e-9 * z_m[n_nodes - 1];
         for p in &case.point_masses {
             if let Some(i) = z_m.iter().position(|z| (z - p.z_m).abs() <= tol) {
-                mass.add(2 * i, 2 * i, p.mass_kg);
+                mass.add(4 * i, 4 * i, p.mass_kg);
                 point_masses.push((i, p.mass_kg));
             }
         }
@@ -238,7 +239,7 @@ impl BeamModel {
 
     /// Number of dofs in the vectors (including removed base dofs).
     pub fn dofs(&self) -> usize {
-        2 * self.z_m.len()
+        4 * self.z_m.len() - 2
     }
 
     /// Which dofs are free (not removed by a rigid base).
@@ -258,7 +259,7 @@ impl BeamModel {
 
 fn zero_row(band: &mut SymBand, i: usize) {
     let n = band.dim();
-    for j in i.saturating_sub(3)..n.min(i + 4) {
+    for j in i.saturating_sub(super::band::HALF_BAND)..n.min(i + super::band::HALF_BAND + 1) {
         let v = band.get(i, j);
         if v != 0.0 {
             band.add(i, j, -v);

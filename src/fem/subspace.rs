@@ -29,7 +29,7 @@ pub struct Solution {
 }
 
 /// Relative change of the eigenvalues between iterations that counts as converged.
-const TOLERANCE: f64 = 1e-13;
+const TOLERANCE: f64 = 1e-12;
 const MAX_ITERATIONS: usize = 300;
 
 fn apply_operator(model: &BeamModel, x: &DMatrix<f64>, mx: &mut DMatrix<f64>, y: &mut DMatrix<f64>) {
@@ -82,8 +82,8 @@ fn start_vectors(model: &BeamModel, p: usize) -> DMatrix<f64> {
             hash ^= hash >> 29;
             let noise = (hash % 10_000) as f64 / 10_000.0 - 0.5;
             let smooth = if j == 0 { s } else { (std::f64::consts::PI * (j as f64) * s).sin() * s };
-            x[(2 * i, j)] = smooth + 0.05 * noise;
-            x[(2 * i + 1, j)] = 0.01 * noise;
+            x[(4 * i, j)] = smooth + 0.05 * noise;
+            x[(4 * i + 1, j)] = 0.01 * noise;
         }
         for d in 0..2 {
             if !model.is_free(d) {
