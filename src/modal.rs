@@ -127,11 +127,11 @@ pub fn analyse_stage(
     stage: &Stage,
     options: ModalOptions,
 ) -> Result<StageModes, ModalError> {
-    let beam = BeamModel::build(case, stage, options.min_elements, options.modes);
-    let solution = fem::lowest_modes(&beam, options.modes).map_err(|source| ModalError::Solver {
-        stage: stage.name.clone(),
-        source,
-    })?;
+    let (beam, solution) = fem::solve_stage(case, stage, options.min_elements, options.modes)
+        .map_err(|source| ModalError::Solver {
+            stage: stage.name.clone(),
+            source,
+        })?;
     Ok(stage_modes(stage, &beam, &solution))
 }
 
@@ -177,7 +177,11 @@ pub fn stage_model(beam: &BeamModel) -> StageModel {
         model.wall_m[i] = a.wall_m;
         model.shell_mass_kg_m[i] = data.shell_mass_kg_m(s);
         model.second_moment_m4[i] = a.second_moment_m4();
-        let above = if i + 1 < n { beam.element_data[i].lining_mass_kg_m(0.0) } else { 0.0 };
+        let above = if i + 1 < n {
+            beam.element_data[i].lining_mass_kg_m(0.0)
+        } else {
+            0.0
+        };
         let below = if i > 0 {
             let d = &beam.element_data[i - 1];
             d.lining_mass_kg_m(d.length_m)
@@ -197,7 +201,12 @@ fn shape_integrals(beam: &BeamModel, u: &[f64]) -> (f64, f64) {
     for (e, (el, data)) in beam.elements.iter().zip(&beam.element_data).enumerate() {
         let ue = &u[4 * e..4 * e + 6];
         let samples = el.shape_samples(data);
-        for ((s, wt), nw) in samples.s_m.iter().zip(&samples.weight_m).zip(&samples.displacement_shapes) {
+        for ((s, wt), nw) in samples
+            .s_m
+            .iter()
+            .zip(&samples.weight_m)
+            .zip(&samples.displacement_shapes)
+        {
             let w: f64 = (0..6).map(|k| nw[k] * ue[k]).sum();
             let m = data.shell_mass_kg_m(*s) + data.lining_mass_kg_m(*s);
             m_w2 += wt * m * w * w;

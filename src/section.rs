@@ -39,7 +39,10 @@ impl Annulus {
     pub fn second_moment_m4(&self) -> f64 {
         let d_out = self.outer_diameter_m;
         let d_in = self.inner_diameter_m();
-        std::f64::consts::PI / 64.0 * (d_out * d_out + d_in * d_in) * (d_out + d_in) * (2.0 * self.wall_m)
+        std::f64::consts::PI / 64.0
+            * (d_out * d_out + d_in * d_in)
+            * (d_out + d_in)
+            * (2.0 * self.wall_m)
     }
 
     /// Elastic section modulus W = I / (D/2), m3.
@@ -82,7 +85,11 @@ mod tests {
         let s = Annulus::new(16.0, 0.55);
         let d = 16.0 - 1.1;
         let pi = std::f64::consts::PI;
-        assert_relative_eq!(s.area_m2(), pi / 4.0 * (256.0 - d * d), max_relative = 1e-14);
+        assert_relative_eq!(
+            s.area_m2(),
+            pi / 4.0 * (256.0 - d * d),
+            max_relative = 1e-14
+        );
         assert_relative_eq!(
             s.second_moment_m4(),
             pi / 64.0 * (16f64.powi(4) - d.powi(4)),

@@ -18,7 +18,13 @@ fn modes_1_to_5_match_blevins_table_8_1() {
     for (k, lam) in LAMBDA.iter().enumerate() {
         let exact = lam * lam / (2.0 * std::f64::consts::PI * 100.0f64.powi(2)) * (ei / m).sqrt();
         let rel = (f[k] - exact).abs() / exact;
-        assert!(rel < 1e-6, "mode {}: {} vs {} (rel {rel:.2e})", k + 1, f[k], exact);
+        assert!(
+            rel < 1e-6,
+            "mode {}: {} vs {} (rel {rel:.2e})",
+            k + 1,
+            f[k],
+            exact
+        );
     }
 }
 

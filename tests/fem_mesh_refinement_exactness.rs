@@ -18,10 +18,19 @@ fn tapered_case() -> Case {
     case.linings.push(Lining {
         from_z_m: 8.0,
         to_z_m: 180.0,
-        mass: LiningMass::PerArea { mass_per_area_kg_m2: 300.0 },
+        mass: LiningMass::PerArea {
+            mass_per_area_kg_m2: 300.0,
+        },
     });
-    case.point_masses.push(PointMass { z_m: 150.0, mass_kg: 30000.0, label: "p".into() });
-    case.base = Some(BaseSprings { rotational_nm_per_rad: Some(800e9), lateral_n_per_m: Some(5e9) });
+    case.point_masses.push(PointMass {
+        z_m: 150.0,
+        mass_kg: 30000.0,
+        label: "p".into(),
+    });
+    case.base = Some(BaseSprings {
+        rotational_nm_per_rad: Some(800e9),
+        lateral_n_per_m: Some(5e9),
+    });
     case.stages[0].lining = true;
     case
 }
@@ -30,11 +39,33 @@ fn tapered_case() -> Case {
 fn twenty_thousand_elements_equal_two_hundred_to_1e9() {
     let case = tapered_case();
     let stage = case.stages[0].clone();
-    let coarse = analyse_stage(&case, &stage, ModalOptions { modes: 3, min_elements: Some(200) }).unwrap();
-    let fine = analyse_stage(&case, &stage, ModalOptions { modes: 3, min_elements: Some(20_000) }).unwrap();
+    let coarse = analyse_stage(
+        &case,
+        &stage,
+        ModalOptions {
+            modes: 3,
+            min_elements: Some(200),
+        },
+    )
+    .unwrap();
+    let fine = analyse_stage(
+        &case,
+        &stage,
+        ModalOptions {
+            modes: 3,
+            min_elements: Some(20_000),
+        },
+    )
+    .unwrap();
     for (a, b) in coarse.modes.iter().zip(&fine.modes) {
         let rel = (a.frequency_hz - b.frequency_hz).abs() / b.frequency_hz;
-        assert!(rel < 1e-9, "mode {}: {} vs {} ({rel:.2e})", a.number, a.frequency_hz, b.frequency_hz);
+        assert!(
+            rel < 1e-9,
+            "mode {}: {} vs {} ({rel:.2e})",
+            a.number,
+            a.frequency_hz,
+            b.frequency_hz
+        );
     }
     assert_eq!(fine.check.sturm_count, 3);
 }
@@ -47,9 +78,21 @@ fn frequencies_converge_monotonically_from_above() {
     let stage = case.stages[0].clone();
     let mut last = vec![f64::INFINITY; 3];
     for n in [8, 16, 32, 64] {
-        let r = analyse_stage(&case, &stage, ModalOptions { modes: 3, min_elements: Some(n) }).unwrap();
+        let r = analyse_stage(
+            &case,
+            &stage,
+            ModalOptions {
+                modes: 3,
+                min_elements: Some(n),
+            },
+        )
+        .unwrap();
         for (k, m) in r.modes.iter().enumerate() {
-            assert!(m.frequency_hz <= last[k] * (1.0 + 1e-12), "n={n} mode {}", k + 1);
+            assert!(
+                m.frequency_hz <= last[k] * (1.0 + 1e-12),
+                "n={n} mode {}",
+                k + 1
+            );
             last[k] = m.frequency_hz;
         }
     }

@@ -21,6 +21,11 @@ impl SymBand {
         self.rows.len()
     }
 
+    /// Row i of the upper band: A[i][i + k], k = 0..=HALF_BAND.
+    pub fn row(&self, i: usize) -> &[f64; HALF_BAND + 1] {
+        &self.rows[i]
+    }
+
     /// A[i][j] (any order of i, j).
     pub fn get(&self, i: usize, j: usize) -> f64 {
         let (lo, hi) = if i <= j { (i, j) } else { (j, i) };
@@ -138,7 +143,11 @@ mod tests {
         let mut a = SymBand::zeros(n);
         for i in 0..n {
             for j in i..n.min(i + HALF_BAND + 1) {
-                a.add(i, j, (1 + i * 7 + j * 3) as f64 * if i == j { 10.0 } else { 0.3 });
+                a.add(
+                    i,
+                    j,
+                    (1 + i * 7 + j * 3) as f64 * if i == j { 10.0 } else { 0.3 },
+                );
             }
         }
         let x: Vec<f64> = (0..n).map(|i| (i as f64).sin() + 0.5).collect();

@@ -241,10 +241,20 @@ impl Element {
         // M = 0, so the moment bubble vanishes; keep its dof as an inert unit spring with no
         // mass (it then stays zero and adds one positive pivot to the Sturm count).
         let moment_bubble = work[1][1] > 1e-14 * work[0][0] * h * h;
-        let scale = [work[0][0] / h, if moment_bubble { work[1][1] / h } else { f64::INFINITY }];
+        let scale = [
+            work[0][0] / h,
+            if moment_bubble {
+                work[1][1] / h
+            } else {
+                f64::INFINITY
+            },
+        ];
         let k11 = work[0][0] / (scale[0] * scale[0]);
         let (k12, k22) = if moment_bubble {
-            (0.5 * (work[0][1] + work[1][0]) / (scale[0] * scale[1]), work[1][1] / (scale[1] * scale[1]))
+            (
+                0.5 * (work[0][1] + work[1][0]) / (scale[0] * scale[1]),
+                work[1][1] / (scale[1] * scale[1]),
+            )
         } else {
             (0.0, 1.0)
         };
@@ -252,8 +262,22 @@ impl Element {
         let bubble_flexibility = [k22 / det_b, -k12 / det_b, k11 / det_b];
         let mut mass = [[0.0; 6]; 6];
         for (s, wt, nw, nt, bw, bt) in samples {
-            let sw = [nw[0], nw[1], bw[0] / scale[0], bw[1] / scale[1], nw[2], nw[3]];
-            let st = [nt[0], nt[1], bt[0] / scale[0], bt[1] / scale[1], nt[2], nt[3]];
+            let sw = [
+                nw[0],
+                nw[1],
+                bw[0] / scale[0],
+                bw[1] / scale[1],
+                nw[2],
+                nw[3],
+            ];
+            let st = [
+                nt[0],
+                nt[1],
+                bt[0] / scale[0],
+                bt[1] / scale[1],
+                nt[2],
+                nt[3],
+            ];
             let m = p.mass_per_length_kg_m(s) * wt;
             let j_rot = p.rotary_inertia_kg_m(s) * wt;
             for i in 0..6 {
@@ -293,6 +317,28 @@ impl Element {
         }
     }
 
+    /// Displacement and rotation shape functions (N_w, N_theta) over
+    /// (w_a, theta_a, q1, q2, w_b, theta_b) at local coordinate s.
+    pub fn shapes<P: ElementProperties>(&self, p: &P, s_m: f64) -> ([f64; 6], [f64; 6]) {
+        let h = self.length_m;
+        let np = compliance_points(p.relative_variation());
+        let r = end_load_map(self.flexibility, h);
+        let c = compliance_at(p, s_m, np);
+        let (nw, nt) = shapes_at(c, s_m, h, &r);
+        let mut bw = [0.0; 2];
+        let mut bt = [0.0; 2];
+        for (j, (q, mu)) in BUBBLE_LOADS.iter().enumerate() {
+            let [m0, v0, scale] = self.bubbles[j];
+            let (w, t) = bubble_at(c, s_m, *q, *mu, m0, v0);
+            bw[j] = w / scale;
+            bt[j] = t / scale;
+        }
+        (
+            [nw[0], nw[1], bw[0], bw[1], nw[2], nw[3]],
+            [nt[0], nt[1], bt[0], bt[1], nt[2], nt[3]],
+        )
+    }
+
     /// Displacement shape functions at the mass Gauss points, for integrals of mode shapes
     /// over the element (equivalent mass, Annex E K and Kw).
     pub fn shape_samples<P: ElementProperties>(&self, p: &P) -> ShapeSamples {
@@ -317,7 +363,8 @@ impl Element {
                 let [m0, v0, scale] = self.bubbles[j];
                 bw[j] = bubble_at(c, s, *q, *mu, m0, v0).0 / scale;
             }
-            out.displacement_shapes.push([nw[0], nw[1], bw[0], bw[1], nw[2], nw[3]]);
+            out.displacement_shapes
+                .push([nw[0], nw[1], bw[0], bw[1], nw[2], nw[3]]);
         }
         out
     }
@@ -379,7 +426,12 @@ mod tests {
     fn uniform_euler_bernoulli_element_is_the_hermite_cubic() {
         // Classical Hermite beam element (Przemieniecki, Theory of Matrix Structural
         // Analysis, 1968, eqs. 5.111 and 11.39).
-        let p = Uniform { ei: 3.0e11, kga: f64::INFINITY, m: 4.0e4, j: 0.0 };
+        let p = Uniform {
+            ei: 3.0e11,
+            kga: f64::INFINITY,
+            m: 4.0e4,
+            j: 0.0,
+        };
         let h = 2.5;
         let e = Element::integrate(&p, h);
         let k = hermite_stiffness(p.ei, h);
@@ -388,26 +440,53 @@ mod tests {
         for i in 0..4 {
             for j in 0..4 {
                 let (a, b) = (map[i], map[j]);
-                assert!((e.stiffness[a][b] - k[i][j]).abs() <= 1e-12 * k[0][0], "K[{i}][{j}]");
-                assert!((e.mass[a][b] - m[i][j]).abs() <= 1e-12 * m[0][0], "M[{i}][{j}]");
+                assert!(
+                    (e.stiffness[a][b] - k[i][j]).abs() <= 1e-12 * k[0][0],
+                    "K[{i}][{j}]"
+                );
+                assert!(
+                    (e.mass[a][b] - m[i][j]).abs() <= 1e-12 * m[0][0],
+                    "M[{i}][{j}]"
+                );
             }
         }
         // The load bubble of a uniform Euler-Bernoulli element is w = s^2 (h - s)^2 / (24 EI),
         // mean h^4 / (720 EI), so k_q1 = 720 EI / h^3 (direct integration).
-        assert_relative_eq!(e.stiffness[2][2], 720.0 * p.ei / h.powi(3), max_relative = 1e-12);
+        assert_relative_eq!(
+            e.stiffness[2][2],
+            720.0 * p.ei / h.powi(3),
+            max_relative = 1e-12
+        );
     }
 
     #[test]
     fn uniform_timoshenko_stiffness_matches_closed_form() {
         // Timoshenko beam element with phi = 12 EI / (k G A h^2) (Przemieniecki 1968,
         // eq. 5.116): K11 = 12 EI / ((1 + phi) h^3), K22 = (4 + phi) EI / ((1 + phi) h).
-        let p = Uniform { ei: 3.0e11, kga: 2.0e10, m: 4.0e4, j: 1.0e5 };
+        let p = Uniform {
+            ei: 3.0e11,
+            kga: 2.0e10,
+            m: 4.0e4,
+            j: 1.0e5,
+        };
         let h = 4.0;
         let phi = 12.0 * p.ei / (p.kga * h * h);
         let e = Element::integrate(&p, h);
-        assert_relative_eq!(e.stiffness[0][0], 12.0 * p.ei / ((1.0 + phi) * h.powi(3)), max_relative = 1e-13);
-        assert_relative_eq!(e.stiffness[1][1], (4.0 + phi) * p.ei / ((1.0 + phi) * h), max_relative = 1e-13);
-        assert_relative_eq!(e.stiffness[1][5], (2.0 - phi) * p.ei / ((1.0 + phi) * h), max_relative = 1e-13);
+        assert_relative_eq!(
+            e.stiffness[0][0],
+            12.0 * p.ei / ((1.0 + phi) * h.powi(3)),
+            max_relative = 1e-13
+        );
+        assert_relative_eq!(
+            e.stiffness[1][1],
+            (4.0 + phi) * p.ei / ((1.0 + phi) * h),
+            max_relative = 1e-13
+        );
+        assert_relative_eq!(
+            e.stiffness[1][5],
+            (2.0 - phi) * p.ei / ((1.0 + phi) * h),
+            max_relative = 1e-13
+        );
         for k in [0, 1, 4, 5] {
             assert_eq!(e.stiffness[2][k], 0.0);
             assert_eq!(e.stiffness[3][k], 0.0);
@@ -417,7 +496,12 @@ mod tests {
     #[test]
     fn mass_matrix_reproduces_total_mass_and_rigid_rotation() {
         // A rigid translation u = (1, 0, 1, 0) must see the total mass m h.
-        let p = Uniform { ei: 1.0e9, kga: 5.0e8, m: 300.0, j: 20.0 };
+        let p = Uniform {
+            ei: 1.0e9,
+            kga: 5.0e8,
+            m: 300.0,
+            j: 20.0,
+        };
         let h = 1.7;
         let e = Element::integrate(&p, h);
         let u = [1.0, 0.0, 0.0, 0.0, 1.0, 0.0];

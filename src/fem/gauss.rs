@@ -39,7 +39,11 @@ fn compute(n: usize) -> Rule {
 
 fn table() -> &'static Vec<Rule> {
     static TABLE: OnceLock<Vec<Rule>> = OnceLock::new();
-    TABLE.get_or_init(|| (0..=MAX_POINTS).map(|n| if n == 0 { (vec![], vec![]) } else { compute(n) }).collect())
+    TABLE.get_or_init(|| {
+        (0..=MAX_POINTS)
+            .map(|n| if n == 0 { (vec![], vec![]) } else { compute(n) })
+            .collect()
+    })
 }
 
 /// The n-point rule (1 <= n <= MAX_POINTS): nodes ascending and weights.
@@ -58,7 +62,11 @@ mod tests {
         for n in 1..=MAX_POINTS {
             let (xs, ws) = rule(n);
             for deg in 0..(2 * n) {
-                let exact = if deg % 2 == 1 { 0.0 } else { 2.0 / (deg as f64 + 1.0) };
+                let exact = if deg % 2 == 1 {
+                    0.0
+                } else {
+                    2.0 / (deg as f64 + 1.0)
+                };
                 let q: f64 = xs.iter().zip(ws).map(|(x, w)| w * x.powi(deg as i32)).sum();
                 assert!((q - exact).abs() < 1e-14, "n={n} deg={deg}: {q} vs {exact}");
             }

@@ -10,6 +10,7 @@
 //! Units: m, kg, N, Pa, rad; eigenvalues in (rad/s)^2.
 
 pub mod band;
+pub mod block;
 pub mod element;
 pub mod flexibility;
 pub mod gauss;
@@ -19,7 +20,10 @@ pub mod subspace;
 use thiserror::Error;
 
 pub use model::BeamModel;
-pub use subspace::{lowest_modes, Solution};
+
+use crate::case::{Case, Stage};
+use block::Block;
+pub use subspace::{lowest_modes, lowest_modes_from, Solution};
 
 /// Why the eigen-solver refused to report modes (never wrong numbers instead).
 #[derive(Debug, Error, Clone, PartialEq)]
@@ -38,8 +42,63 @@ pub enum SolverError {
     NotPositive { iteration: usize },
     /// The Sturm count disagrees with the number of modes found.
     #[error("completeness check failed: {counted} eigenvalues lie below the shift {shift:.6e} (rad/s)^2 but {expected} modes were found; a mode may have been skipped")]
-    Incomplete { expected: usize, counted: usize, shift: f64 },
+    Incomplete {
+        expected: usize,
+        counted: usize,
+        shift: f64,
+    },
     /// The converged modes do not satisfy the eigen-equation.
     #[error("eigen-solver residual {residual:.3e} too large")]
     Residual { residual: f64 },
+}
+
+/// Meshes up to this many elements are solved directly; finer meshes start from the modes of
+/// a mesh of this size.
+pub const COARSE_ELEMENTS: usize = 200;
+
+/// Builds the beam model of `stage` and solves for its lowest `modes` modes.
+pub fn solve_stage(
+    case: &Case,
+    stage: &Stage,
+    min_elements: Option<usize>,
+    modes: usize,
+) -> Result<(BeamModel, Solution), SolverError> {
+    let fine = BeamModel::build(case, stage, min_elements, modes);
+    if fine.elements.len() <= 2 * COARSE_ELEMENTS {
+        let solution = lowest_modes(&fine, modes)?;
+        return Ok((fine, solution));
+    }
+    let wanted = modes + 2;
+    let coarse = BeamModel::build(case, stage, Some(COARSE_ELEMENTS), wanted);
+    let coarse_solution = lowest_modes(&coarse, wanted)?;
+    let start = interpolate_modes(&coarse, &coarse_solution.vectors, &fine);
+    let solution = lowest_modes_from(&fine, modes, start)?;
+    Ok((fine, solution))
+}
+
+/// Evaluates the coarse model's vectors at the fine model's nodes with the coarse elements'
+/// exact shapes (fine bubbles start at zero).
+pub fn interpolate_modes(coarse: &BeamModel, vectors: &Block, fine: &BeamModel) -> Block {
+    let width = vectors.width;
+    let mut out = Block::zeros(fine.dofs(), width);
+    let mut e = 0;
+    let n_coarse = coarse.elements.len();
+    for (i, &z) in fine.z_m.iter().enumerate() {
+        while e + 1 < n_coarse && z > coarse.z_m[e + 1] {
+            e += 1;
+        }
+        let s = (z - coarse.z_m[e]).clamp(0.0, coarse.elements[e].length_m);
+        let (nw, nt) = coarse.elements[e].shapes(&coarse.element_data[e], s);
+        for c in 0..width {
+            let (mut w, mut t) = (0.0, 0.0);
+            for k in 0..6 {
+                let u = vectors.get(4 * e + k, c);
+                w += nw[k] * u;
+                t += nt[k] * u;
+            }
+            out.set(4 * i, c, w);
+            out.set(4 * i + 1, c, t);
+        }
+    }
+    out
 }

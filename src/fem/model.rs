@@ -47,7 +47,8 @@ impl ElementData {
     pub fn annulus(&self, s_m: f64) -> Annulus {
         let t = s_m / self.length_m;
         Annulus::new(
-            self.outer_diameter_bottom_m + t * (self.outer_diameter_top_m - self.outer_diameter_bottom_m),
+            self.outer_diameter_bottom_m
+                + t * (self.outer_diameter_top_m - self.outer_diameter_bottom_m),
             self.wall_bottom_m + t * (self.wall_top_m - self.wall_bottom_m),
         )
     }
@@ -93,10 +94,21 @@ impl ElementProperties for ElementData {
     fn relative_variation(&self) -> f64 {
         let dd = (self.outer_diameter_top_m - self.outer_diameter_bottom_m).abs()
             / self.outer_diameter_bottom_m.min(self.outer_diameter_top_m);
-        let dt = (self.wall_top_m - self.wall_bottom_m).abs() / self.wall_bottom_m.min(self.wall_top_m);
+        let dt =
+            (self.wall_top_m - self.wall_bottom_m).abs() / self.wall_bottom_m.min(self.wall_top_m);
         // I ~ D^3 t for thin walls: the variation of EI is ~3 dD/D + dt/t.
         3.0 * dd + dt
     }
+}
+
+/// What the K^-1 recursion needs of one element.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct OperatorData {
+    pub length_m: f64,
+    /// [f_ww, f_wt, f_tt] of the element clamped at its lower node.
+    pub flexibility: [f64; 3],
+    /// Inverse of the bubble stiffness block [b11, b12, b22].
+    pub bubble_flexibility: [f64; 3],
 }
 
 /// The assembled beam model of one stage.
@@ -106,6 +118,8 @@ pub struct BeamModel {
     pub z_m: Vec<f64>,
     pub element_data: Vec<ElementData>,
     pub elements: Vec<Element>,
+    /// The per-element data of the K^-1 recursion, kept compact for cache use.
+    pub operator: Vec<OperatorData>,
     /// Consistent mass incl. point masses, kg (band over all dofs; removed dofs zeroed).
     pub mass: SymBand,
     /// Stiffness incl. base springs (band over all dofs; removed dofs as identity rows).
@@ -149,7 +163,11 @@ pub fn mesh_nodes(case: &Case, stage: &Stage, min_elements: usize) -> Vec<f64> {
         let len = w[1] - w[0];
         let n = ((target as f64 * len / height).round() as usize).max(1);
         for k in 1..=n {
-            nodes.push(if k == n { w[1] } else { w[0] + len * k as f64 / n as f64 });
+            nodes.push(if k == n {
+                w[1]
+            } else {
+                w[0] + len * k as f64 / n as f64
+            });
         }
     }
     nodes
@@ -174,7 +192,11 @@ impl BeamModel {
             let mid = 0.5 * (w[0] + w[1]);
             let mut lining_coefficients = [0.0; 3];
             if stage.lining {
-                for l in case.linings.iter().filter(|l| l.from_z_m <= mid && mid <= l.to_z_m) {
+                for l in case
+                    .linings
+                    .iter()
+                    .filter(|l| l.from_z_m <= mid && mid <= l.to_z_m)
+                {
                     let c = lining_coefficients_of(l);
                     for k in 0..3 {
                         lining_coefficients[k] += c[k];
@@ -225,7 +247,16 @@ impl BeamModel {
                 zero_row(&mut mass, 1);
             }
         }
+        let operator = elements
+            .iter()
+            .map(|e| OperatorData {
+                length_m: e.length_m,
+                flexibility: e.flexibility,
+                bubble_flexibility: e.bubble_flexibility,
+            })
+            .collect();
         BeamModel {
+            operator,
             z_m,
             element_data,
             elements,
@@ -271,11 +302,21 @@ fn zero_row(band: &mut SymBand, i: usize) {
 fn lining_coefficients_of(l: &Lining) -> [f64; 3] {
     let pi = std::f64::consts::PI;
     match l.mass {
-        LiningMass::PerLength { mass_per_length_kg_m } => [mass_per_length_kg_m, 0.0, 0.0],
-        LiningMass::PerArea { mass_per_area_kg_m2 } => {
-            [0.0, pi * mass_per_area_kg_m2, -2.0 * pi * mass_per_area_kg_m2]
-        }
-        LiningMass::Layer { thickness_m, density_kg_m3, gap_m } => {
+        LiningMass::PerLength {
+            mass_per_length_kg_m,
+        } => [mass_per_length_kg_m, 0.0, 0.0],
+        LiningMass::PerArea {
+            mass_per_area_kg_m2,
+        } => [
+            0.0,
+            pi * mass_per_area_kg_m2,
+            -2.0 * pi * mass_per_area_kg_m2,
+        ],
+        LiningMass::Layer {
+            thickness_m,
+            density_kg_m3,
+            gap_m,
+        } => {
             let c = density_kg_m3 * pi * thickness_m;
             [c * (-2.0 * gap_m - thickness_m), c, -2.0 * c]
         }

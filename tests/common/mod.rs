@@ -21,13 +21,22 @@ pub fn shell_case(
             beam,
             stations: stations
                 .iter()
-                .map(|&(z_m, outer_diameter_m, wall_m)| Station { z_m, outer_diameter_m, wall_m })
+                .map(|&(z_m, outer_diameter_m, wall_m)| Station {
+                    z_m,
+                    outer_diameter_m,
+                    wall_m,
+                })
                 .collect(),
         },
         linings: vec![],
         point_masses: vec![],
         base: None,
-        stages: vec![Stage { name: "shell".into(), lining: false, stiffness_factor: 1.0, top_z_m: None }],
+        stages: vec![Stage {
+            name: "shell".into(),
+            lining: false,
+            stiffness_factor: 1.0,
+            top_z_m: None,
+        }],
         wind: Wind {
             reference_speed_m_s: 30.0,
             reference_height_m: 10.0,
@@ -56,13 +65,26 @@ pub fn uniform_tube(h_m: f64, d_m: f64, t_m: f64, beam: BeamTheory) -> Case {
 
 /// Bending stiffness and mass per length of a uniform tube case.
 pub fn tube_ei_m(case: &Case) -> (f64, f64) {
-    let s = stackwake::section::Annulus::new(case.shell.stations[0].outer_diameter_m, case.shell.stations[0].wall_m);
-    (case.shell.elastic_modulus_pa * s.second_moment_m4(), case.shell.density_kg_m3 * s.area_m2())
+    let s = stackwake::section::Annulus::new(
+        case.shell.stations[0].outer_diameter_m,
+        case.shell.stations[0].wall_m,
+    );
+    (
+        case.shell.elastic_modulus_pa * s.second_moment_m4(),
+        case.shell.density_kg_m3 * s.area_m2(),
+    )
 }
 
 pub fn frequencies(case: &Case, modes: usize, elements: Option<usize>) -> Vec<f64> {
     let stage = case.stages[0].clone();
-    let r = stackwake::modal::analyse_stage(case, &stage, stackwake::modal::ModalOptions { modes, min_elements: elements })
-        .expect("modal analysis");
+    let r = stackwake::modal::analyse_stage(
+        case,
+        &stage,
+        stackwake::modal::ModalOptions {
+            modes,
+            min_elements: elements,
+        },
+    )
+    .expect("modal analysis");
     r.modes.iter().map(|m| m.frequency_hz).collect()
 }
