@@ -68,7 +68,7 @@ pub fn solve_stage(
         let solution = lowest_modes(&fine, modes)?;
         return Ok((fine, solution));
     }
-    let wanted = modes + 2;
+    let wanted = modes + 4;
     let coarse = BeamModel::build(case, stage, Some(COARSE_ELEMENTS), wanted);
     let coarse_solution = lowest_modes(&coarse, wanted)?;
     let start = interpolate_modes(&coarse, &coarse_solution.vectors, &fine);

@@ -37,6 +37,29 @@ pub struct Solution {
 /// Relative change of the eigenvalues between iterations that counts as converged.
 const TOLERANCE: f64 = 1e-12;
 const MAX_ITERATIONS: usize = 300;
+/// Relative residual the modes must reach before iteration stops.
+const VECTOR_TOLERANCE: f64 = 1e-8;
+
+/// Largest relative residual in the flexibility form, which is exact:
+/// |K^-1 M phi - phi / lambda|_M / |phi / lambda|_M.
+fn residual_norm(model: &BeamModel, phi: &Block, values: &[f64]) -> f64 {
+    let (dofs, n) = (phi.dofs, phi.width);
+    let mut mphi = Block::zeros(dofs, n);
+    let mut kinv = Block::zeros(dofs, n);
+    band_times_block(&model.mass, phi, &mut mphi);
+    apply_inverse_stiffness_block(model, &mphi, &mut kinv);
+    let mut r = Block::zeros(dofs, n);
+    for (k, rv) in r.data.iter_mut().enumerate() {
+        *rv = kinv.data[k] - phi.data[k] / values[k % n];
+    }
+    let mut mr = Block::zeros(dofs, n);
+    band_times_block(&model.mass, &r, &mut mr);
+    let rr = r.gram(&mr);
+    let pp = phi.gram(&mphi);
+    (0..n)
+        .map(|i| rr[(i, i)].max(0.0).sqrt() / (pp[(i, i)].sqrt() / values[i]))
+        .fold(0.0, f64::max)
+}
 
 /// Solves the small pencil kr q = lambda mr q; returns ascending eigenvalues and mr-normalised
 /// vectors.
@@ -147,7 +170,7 @@ pub fn lowest_modes_from(
     let mut previous: Vec<f64> = vec![f64::INFINITY; p];
     let guard = n + 1;
     let mut iterations = 0;
-    let values = loop {
+    loop {
         iterations += 1;
         band_times_block(&model.mass, &x, &mut mx);
         apply_inverse_stiffness_block(model, &mx, &mut y);
@@ -165,31 +188,21 @@ pub fn lowest_modes_from(
         y.times(&q, &mut x);
         let converged = (0..n).all(|i| ((vals[i] - previous[i]) / vals[i]).abs() < TOLERANCE)
             && ((vals[guard - 1] - previous[guard - 1]) / vals[guard - 1]).abs() < 1e-6;
-        if converged {
-            break vals;
-        }
         previous = vals;
+        if converged {
+            // Eigenvalues converge twice as fast as vectors: also ask for a small residual.
+            let residual = residual_norm(model, &x.leading(n), &previous[..n]);
+            if residual < VECTOR_TOLERANCE || iterations >= MAX_ITERATIONS {
+                break;
+            }
+        }
         if iterations >= MAX_ITERATIONS {
             return Err(SolverError::NoConvergence { iterations });
         }
-    };
-    // Residuals in the flexibility form, which is exact: r = K^-1 M phi - phi / lambda.
-    let phi = x.leading(n);
-    let mut mphi = Block::zeros(dofs, n);
-    let mut kinv = Block::zeros(dofs, n);
-    band_times_block(&model.mass, &phi, &mut mphi);
-    apply_inverse_stiffness_block(model, &mphi, &mut kinv);
-    let mut r = Block::zeros(dofs, n);
-    for (k, rv) in r.data.iter_mut().enumerate() {
-        *rv = kinv.data[k] - phi.data[k] / values[k % n];
     }
-    let mut mr = Block::zeros(dofs, n);
-    band_times_block(&model.mass, &r, &mut mr);
-    let rr = r.gram(&mr);
-    let pp = phi.gram(&mphi);
-    let max_residual = (0..n)
-        .map(|i| rr[(i, i)].max(0.0).sqrt() / (pp[(i, i)].sqrt() / values[i]))
-        .fold(0.0, f64::max);
+    let values = previous;
+    let phi = x.leading(n);
+    let max_residual = residual_norm(model, &phi, &values[..n]);
     // Sturm count at a shift between the last wanted and the next eigenvalue.
     let shift = (values[n - 1] * values[n]).sqrt();
     let sturm_count = model
