@@ -13,4 +13,14 @@ pub enum Error {
     /// The modal analysis of a stage failed (non-convergence or failed completeness check).
     #[error(transparent)]
     Modal(#[from] crate::modal::ModalError),
+    /// Output could not be written.
+    #[error(transparent)]
+    Report(#[from] crate::report::ReportError),
+    /// A command-line value is outside its valid range.
+    #[error("{option} = {value}: {rule}")]
+    Usage {
+        option: String,
+        value: String,
+        rule: String,
+    },
 }

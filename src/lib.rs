@@ -11,8 +11,10 @@
 //! code and the governing standard's National Annex. No warranty.
 
 pub mod case;
+pub mod commands;
 pub mod error;
 pub mod fem;
 pub mod input;
 pub mod modal;
+pub mod report;
 pub mod section;

@@ -1,0 +1,100 @@
+//! Time to the lowest 10 modes of a tapered Timoshenko shell (invented 180 m stack with
+//! lining, platform and base springs) at 200, 2 000 and 20 000 elements, plus the cost
+//! breakdown of one default-mesh stage analysis. Prints a table; run with `cargo bench`.
+//! Figures are wall-clock medians of repeated runs on the current machine.
+
+use std::time::{Duration, Instant};
+
+use stackwake::case::*;
+use stackwake::fem::{solve_stage, BeamModel};
+
+fn case() -> Case {
+    let stations = [(0.0, 16.0, 0.55), (60.0, 13.0, 0.40), (180.0, 9.0, 0.22)];
+    Case {
+        title: "Invented benchmark stack".into(),
+        shell: Shell {
+            elastic_modulus_pa: 32e9,
+            density_kg_m3: 2500.0,
+            poisson_ratio: 0.2,
+            beam: BeamTheory::Timoshenko,
+            stations: stations
+                .iter()
+                .map(|&(z_m, outer_diameter_m, wall_m)| Station { z_m, outer_diameter_m, wall_m })
+                .collect(),
+        },
+        linings: vec![Lining { from_z_m: 8.0, to_z_m: 180.0, mass: LiningMass::PerArea { mass_per_area_kg_m2: 300.0 } }],
+        point_masses: vec![PointMass { z_m: 150.0, mass_kg: 30000.0, label: "platform".into() }],
+        base: Some(BaseSprings { rotational_nm_per_rad: Some(800e9), lateral_n_per_m: Some(5e9) }),
+        stages: vec![Stage { name: "lined".into(), lining: true, stiffness_factor: 1.0, top_z_m: None }],
+        wind: Wind {
+            reference_speed_m_s: 30.0,
+            reference_height_m: 10.0,
+            profile: Profile::Power { exponent: 0.16 },
+            air_density_kg_m3: 1.25,
+            kinematic_viscosity_m2_s: 1.5e-5,
+        },
+        vortex: Vortex {
+            method: VortexMethod::En1991E1,
+            strouhal: None,
+            log_decrement: 0.03,
+            damping_ratio: None,
+            modes: 3,
+            design_life_years: 50.0,
+            group: None,
+        },
+        criteria: Criteria::default(),
+        model: None,
+    }
+}
+
+fn median(mut v: Vec<Duration>) -> Duration {
+    v.sort();
+    v[v.len() / 2]
+}
+
+fn time<F: FnMut()>(runs: usize, mut f: F) -> Duration {
+    f(); // warm-up
+    median(
+        (0..runs)
+            .map(|_| {
+                let t = Instant::now();
+                f();
+                t.elapsed()
+            })
+            .collect(),
+    )
+}
+
+fn main() {
+    let case = case();
+    let stage = case.stages[0].clone();
+    println!("lowest 10 modes, tapered Timoshenko shell (median wall-clock)");
+    println!("{:>10}  {:>12}  {:>12}  {:>14}", "elements", "build_ms", "total_ms", "f1_hz");
+    let mut totals = Vec::new();
+    for (n, runs) in [(200, 21), (2_000, 11), (20_000, 5)] {
+        let build = time(runs, || {
+            std::hint::black_box(BeamModel::build(&case, &stage, Some(n), 10));
+        });
+        let mut f1 = 0.0;
+        let total = time(runs, || {
+            let (_, s) = solve_stage(&case, &stage, Some(n), 10).expect("solve");
+            f1 = s.eigenvalues[0].sqrt() / (2.0 * std::f64::consts::PI);
+        });
+        totals.push(total);
+        println!(
+            "{:>10}  {:>12.3}  {:>12.3}  {:>14.10}",
+            n,
+            build.as_secs_f64() * 1e3,
+            total.as_secs_f64() * 1e3,
+            f1
+        );
+    }
+    println!(
+        "ratio 20 000 / 200 elements: {:.1}x",
+        totals[2].as_secs_f64() / totals[0].as_secs_f64()
+    );
+    let default = time(51, || {
+        std::hint::black_box(solve_stage(&case, &stage, None, 3).expect("solve"));
+    });
+    println!("default mesh, 3 modes (one stage analysis): {:.3} ms", default.as_secs_f64() * 1e3);
+}
