@@ -80,7 +80,9 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     if !issues.is_empty() {
         return Err(issues);
     }
-    match (shell, lining, point_mass, base, stage, wind, vortex, criteria, model) {
+    match (
+        shell, lining, point_mass, base, stage, wind, vortex, criteria, model,
+    ) {
         (
             Some(shell),
             Some(lining),
@@ -452,12 +454,25 @@ reference_speed_m_s = 25.0
     #[test]
     fn unknown_keys_are_all_reported_with_paths_and_suggestions() {
         let text = MINIMAL
-            .replace("density_kg_m3 = 2500.0", "density_kg_m3 = 2500.0\ndensty = 1\ncolour = 2")
+            .replace(
+                "density_kg_m3 = 2500.0",
+                "density_kg_m3 = 2500.0\ndensty = 1\ncolour = 2",
+            )
             .replace("wall_m = 0.3", "wall_m = 0.3, wal_m = 1");
         let errs = decode(&text).unwrap_err();
-        assert!(errs.contains(&"shell.densty: unknown key; did you mean density_kg_m3?".into()), "{errs:?}");
-        assert!(errs.iter().any(|e| e.starts_with("shell.colour: unknown key; valid keys here:")), "{errs:?}");
-        assert!(errs.contains(&"shell.stations[1].wal_m: unknown key; did you mean wall_m?".into()), "{errs:?}");
+        assert!(
+            errs.contains(&"shell.densty: unknown key; did you mean density_kg_m3?".into()),
+            "{errs:?}"
+        );
+        assert!(
+            errs.iter()
+                .any(|e| e.starts_with("shell.colour: unknown key; valid keys here:")),
+            "{errs:?}"
+        );
+        assert!(
+            errs.contains(&"shell.stations[1].wal_m: unknown key; did you mean wall_m?".into()),
+            "{errs:?}"
+        );
         assert_eq!(errs.len(), 3, "{errs:?}");
     }
 
@@ -467,7 +482,10 @@ reference_speed_m_s = 25.0
         let errs = decode(&text).unwrap_err();
         assert_eq!(
             errs,
-            vec![r#"shell.elastic_modulus_gpa = "32": expected a number, found a string "32""#.to_string()]
+            vec![
+                r#"shell.elastic_modulus_gpa = "32": expected a number, found a string "32""#
+                    .to_string()
+            ]
         );
     }
 
@@ -476,7 +494,12 @@ reference_speed_m_s = 25.0
         let text = format!("{MINIMAL}\n[vortex]\nmethod = \"en1991-e3\"\n");
         let errs = decode(&text).unwrap_err();
         assert_eq!(errs.len(), 1);
-        assert!(errs[0].starts_with(r#"vortex.method = "en1991-e3": unknown choice; did you mean "en1991-e1"?"#), "{errs:?}");
+        assert!(
+            errs[0].starts_with(
+                r#"vortex.method = "en1991-e3": unknown choice; did you mean "en1991-e1"?"#
+            ),
+            "{errs:?}"
+        );
     }
 
     #[test]
@@ -487,7 +510,10 @@ reference_speed_m_s = 25.0
         assert!(errs[1].starts_with("wind: missing section [wind]"));
         let text = MINIMAL.replace("reference_speed_m_s = 25.0", "");
         let errs = decode(&text).unwrap_err();
-        assert_eq!(errs, vec!["wind.reference_speed_m_s: missing; this key is required".to_string()]);
+        assert_eq!(
+            errs,
+            vec!["wind.reference_speed_m_s: missing; this key is required".to_string()]
+        );
     }
 
     #[test]
@@ -495,14 +521,20 @@ reference_speed_m_s = 25.0
         let text = format!("{MINIMAL}\n[lining]\nfrom_z_m = 0\nto_z_m = 10\n");
         let errs = decode(&text).unwrap_err();
         assert_eq!(errs.len(), 1);
-        assert!(errs[0].contains("write [[lining]] with double brackets"), "{errs:?}");
+        assert!(
+            errs[0].contains("write [[lining]] with double brackets"),
+            "{errs:?}"
+        );
     }
 
     #[test]
     fn nested_group_path() {
         let text = format!("{MINIMAL}\n[vortex.group]\ncount = 3\nspacing = 40.0\n");
         let errs = decode(&text).unwrap_err();
-        assert!(errs.contains(&"vortex.group.spacing: unknown key; did you mean spacing_m?".into()), "{errs:?}");
+        assert!(
+            errs.contains(&"vortex.group.spacing: unknown key; did you mean spacing_m?".into()),
+            "{errs:?}"
+        );
     }
 
     #[test]

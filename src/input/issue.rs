@@ -101,7 +101,10 @@ mod tests {
     #[test]
     fn display_with_and_without_value() {
         let with = ValidationIssue::new("shell.stations[2].wall_m", "0.9", "too thick");
-        assert_eq!(with.to_string(), "shell.stations[2].wall_m = 0.9: too thick");
+        assert_eq!(
+            with.to_string(),
+            "shell.stations[2].wall_m = 0.9: too thick"
+        );
         let without = ValidationIssue::key("shell.foo", "unknown key");
         assert_eq!(without.to_string(), "shell.foo: unknown key");
     }
@@ -111,13 +114,24 @@ mod tests {
         assert_eq!(edit_distance("", ""), 0);
         assert_eq!(edit_distance("abc", ""), 3);
         assert_eq!(edit_distance("kitten", "sitting"), 3);
-        assert_eq!(edit_distance("elastic_modulus_gp", "elastic_modulus_gpa"), 1);
+        assert_eq!(
+            edit_distance("elastic_modulus_gp", "elastic_modulus_gpa"),
+            1
+        );
     }
 
     #[test]
     fn nearest_picks_close_names_only() {
-        let keys = ["elastic_modulus_gpa", "density_kg_m3", "poisson_ratio", "wall_m"];
-        assert_eq!(nearest("elastic_modulus_gp", &keys), Some("elastic_modulus_gpa"));
+        let keys = [
+            "elastic_modulus_gpa",
+            "density_kg_m3",
+            "poisson_ratio",
+            "wall_m",
+        ];
+        assert_eq!(
+            nearest("elastic_modulus_gp", &keys),
+            Some("elastic_modulus_gpa")
+        );
         assert_eq!(nearest("densty_kg_m3", &keys), Some("density_kg_m3"));
         assert_eq!(nearest("wall", &keys), Some("wall_m"));
         assert_eq!(nearest("colour", &keys), None);

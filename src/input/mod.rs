@@ -158,7 +158,7 @@ pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case,
             label: label.clone(),
             line,
             column,
-            message: e.message().trim().to_string(),
+            message: e.message().trim().replace('\n', "; "),
         }
     })?;
     if table.is_empty() {
@@ -192,7 +192,10 @@ pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case,
                             rows: Vec::new(),
                         }),
                     ) {
-                        issues.extend(more.into_iter().filter(|i| !i.path.starts_with(name.as_str())));
+                        issues.extend(
+                            more.into_iter()
+                                .filter(|i| !i.path.starts_with(name.as_str())),
+                        );
                     }
                     return Err(InputError::Invalid { label, issues });
                 }

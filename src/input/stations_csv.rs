@@ -210,9 +210,7 @@ fn parse_cell(cell: &str) -> Result<f64, String> {
     }
     let numeric_part = cell.trim_end_matches(|c: char| c.is_alphabetic() || c.is_whitespace());
     if numeric_part.len() < cell.len() && numeric_part.parse::<f64>().is_ok() {
-        return Err(
-            "not a number; leave out the unit (the column name gives it: metres)".into(),
-        );
+        return Err("not a number; leave out the unit (the column name gives it: metres)".into());
     }
     Err("not a number".into())
 }
@@ -226,7 +224,12 @@ mod tests {
             .expect("valid CSV")
             .rows
             .iter()
-            .map(|r| (r.line, [r.station.z_m, r.station.outer_diameter_m, r.station.wall_m]))
+            .map(|r| {
+                (
+                    r.line,
+                    [r.station.z_m, r.station.outer_diameter_m, r.station.wall_m],
+                )
+            })
             .collect()
     }
 
@@ -257,14 +260,21 @@ mod tests {
     fn comma_decimals_in_comma_file_are_explained() {
         let e = errs("z_m,outer_diameter_m,wall_m\n0,12,0,45\n");
         assert_eq!(e.len(), 1);
-        assert!(e[0].starts_with("s.csv line 2: 4 values but the header has 3 columns; a comma inside a number?"), "{e:?}");
+        assert!(
+            e[0].starts_with(
+                "s.csv line 2: 4 values but the header has 3 columns; a comma inside a number?"
+            ),
+            "{e:?}"
+        );
     }
 
     #[test]
     fn stray_unit_empty_cell_and_garbage() {
         let e = errs("z_m,outer_diameter_m,wall_m\n0,16 m,\n10,abc,0.4\n");
         assert_eq!(e.len(), 3, "{e:?}");
-        assert!(e[0].contains(r#"column outer_diameter_m = "16 m": not a number; leave out the unit"#));
+        assert!(
+            e[0].contains(r#"column outer_diameter_m = "16 m": not a number; leave out the unit"#)
+        );
         assert!(e[1].contains(r#"column wall_m = "": empty cell"#));
         assert!(e[2].contains(r#"line 3, column outer_diameter_m = "abc": not a number"#));
     }
@@ -272,10 +282,27 @@ mod tests {
     #[test]
     fn missing_unknown_and_duplicate_columns() {
         let e = errs("z_m,diameter_m,z_m\n0,1,2\n");
-        assert!(e.iter().any(|m| m.starts_with(r#"s.csv header = "diameter_m": unknown column; did you mean outer_diameter_m?"#)), "{e:?}");
-        assert!(e.iter().any(|m| m == r#"s.csv header = "z_m": column given twice"#), "{e:?}");
-        assert!(e.iter().any(|m| m.starts_with("s.csv: missing column outer_diameter_m")), "{e:?}");
-        assert!(e.iter().any(|m| m.starts_with("s.csv: missing column wall_m")), "{e:?}");
+        assert!(
+            e.iter().any(|m| m.starts_with(
+                r#"s.csv header = "diameter_m": unknown column; did you mean outer_diameter_m?"#
+            )),
+            "{e:?}"
+        );
+        assert!(
+            e.iter()
+                .any(|m| m == r#"s.csv header = "z_m": column given twice"#),
+            "{e:?}"
+        );
+        assert!(
+            e.iter()
+                .any(|m| m.starts_with("s.csv: missing column outer_diameter_m")),
+            "{e:?}"
+        );
+        assert!(
+            e.iter()
+                .any(|m| m.starts_with("s.csv: missing column wall_m")),
+            "{e:?}"
+        );
     }
 
     #[test]
@@ -286,6 +313,9 @@ mod tests {
 
     #[test]
     fn comment_lines_are_skipped() {
-        assert_eq!(ok("# invented\nz_m,outer_diameter_m,wall_m\n# base\n0,10,0.4\n"), vec![(4, [0.0, 10.0, 0.4])]);
+        assert_eq!(
+            ok("# invented\nz_m,outer_diameter_m,wall_m\n# base\n0,10,0.4\n"),
+            vec![(4, [0.0, 10.0, 0.4])]
+        );
     }
 }
