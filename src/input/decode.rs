@@ -543,4 +543,61 @@ reference_speed_m_s = 25.0
         assert!(render(&long).chars().count() <= 60);
         assert_eq!(render(&Value::Float(f64::NAN)), "nan");
     }
+
+    /// The case-file example of the design contract, key for key.
+    const CONTRACT_EXAMPLE: &str = r#"
+title = "Invented example: 180 m flue stack, coastal plant"
+[shell]
+elastic_modulus_gpa = 32.0
+density_kg_m3 = 2500.0
+poisson_ratio = 0.2
+beam = "timoshenko"
+stations = [
+  { z_m = 0.0,   outer_diameter_m = 16.0, wall_m = 0.55 },
+  { z_m = 60.0,  outer_diameter_m = 13.0, wall_m = 0.40 },
+  { z_m = 180.0, outer_diameter_m = 9.0,  wall_m = 0.22 },
+]
+[[lining]]
+from_z_m = 8.0
+to_z_m = 180.0
+mass_per_length_kg_m = 5200.0
+[[point_mass]]
+z_m = 150.0
+mass_kg = 30000.0
+label = "platform 3"
+[base]
+rotational_stiffness_gnm_per_rad = 800.0
+lateral_stiffness_mn_per_m = 5000.0
+[[stage]]
+name = "shell only"
+lining = false
+stiffness_factor = 0.8
+top_z_m = 120.0
+[wind]
+reference_speed_m_s = 38.0
+reference_height_m = 10.0
+profile = "power"
+exponent = 0.16
+air_density_kg_m3 = 1.25
+kinematic_viscosity_m2_s = 1.5e-5
+[vortex]
+method = "en1991-e1"
+strouhal = 0.18
+log_decrement = 0.03
+modes = 3
+design_life_years = 50
+[vortex.group]
+count = 3
+spacing_m = 40.0
+arrangement = "in-line"
+"#;
+
+    #[test]
+    fn path_aware_decoding_equals_plain_serde_on_valid_files() {
+        for text in [CONTRACT_EXAMPLE, crate::input::DEMO_CASE_TOML, MINIMAL] {
+            let plain: RawCase = toml::from_str(text).expect("plain serde accepts the file");
+            let table: Table = toml::from_str(text).expect("well formed");
+            assert_eq!(decode_case(table).expect("decodes"), plain);
+        }
+    }
 }
