@@ -1,11 +1,32 @@
 //! Reading a case file: TOML (+ optional stations CSV) -> raw serde structs -> validated
 //! [`crate::case::Case`] in SI units. The only module besides `report` that touches files.
+//!
+//! Stages: size and emptiness checks before parsing; TOML syntax (line and column from the
+//! toml crate); structure (`decode`: unknown keys with a suggestion, wrong types, missing
+//! keys); the stations CSV if named; then every engineering rule (`validate`). Each stage
+//! reports all of its problems at once. Nothing here panics on any input.
 
+pub mod decode;
+pub mod issue;
+pub mod raw;
+pub mod stations_csv;
+pub mod validate;
+
+use std::fmt;
 use std::path::{Path, PathBuf};
 
 use thiserror::Error;
 
 use crate::case::Case;
+
+pub use issue::ValidationIssue;
+pub use stations_csv::{parse_stations_csv, CsvStations};
+
+/// Largest case file or stations CSV accepted, bytes (10 MiB; real ones are a few kB).
+pub const MAX_INPUT_BYTES: u64 = 10 * 1024 * 1024;
+
+/// The built-in demo case (an invented stack), as shipped in `data/demo.toml`.
+pub const DEMO_CASE_TOML: &str = include_str!("../../data/demo.toml");
 
 /// Why a case file could not be turned into a [`Case`].
 #[derive(Debug, Error)]
@@ -17,14 +38,240 @@ pub enum InputError {
         #[source]
         source: std::io::Error,
     },
+    /// The file is not UTF-8 text.
+    #[error("{label} is not UTF-8 text (save it as UTF-8 from your editor or spreadsheet)")]
+    NotText { label: String },
+    /// The file is over [`MAX_INPUT_BYTES`].
+    #[error("{label} is {size}; a {kind} is at most 10 MB")]
+    TooLarge {
+        label: String,
+        /// What the file is for ("case file", "stations CSV").
+        kind: &'static str,
+        size: MegaBytes,
+    },
+    /// The case file holds no settings at all.
+    #[error("{label} is empty: a case file needs at least [shell] and [wind] (see the built-in demo case)")]
+    Empty { label: String },
+    /// Not valid TOML.
+    #[error("{label}, line {line}, column {column}: TOML syntax error: {message}")]
+    Syntax {
+        label: String,
+        /// 1-based.
+        line: usize,
+        /// 1-based, in characters.
+        column: usize,
+        message: String,
+    },
+    /// The stations CSV named by `stations_csv` could not be read.
+    #[error("{label}: cannot read the stations CSV {path}: {source}")]
+    StationsCsv {
+        /// The case file naming the CSV.
+        label: String,
+        path: PathBuf,
+        #[source]
+        source: std::io::Error,
+    },
+    /// Readable, but some values break the rules; every problem is listed.
+    #[error("{label}: {} problem{}:\n{}", issues.len(), if issues.len() == 1 { "" } else { "s" }, IssueList(issues))]
+    Invalid {
+        label: String,
+        issues: Vec<ValidationIssue>,
+    },
+}
+
+/// A file size, shown in MB (MiB) the way a file manager shows it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct MegaBytes(pub u64);
+
+impl fmt::Display for MegaBytes {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let mb = self.0 as f64 / (1024.0 * 1024.0);
+        if mb >= 20.0 {
+            write!(f, "{mb:.0} MB")
+        } else {
+            write!(f, "{mb:.1} MB")
+        }
+    }
+}
+
+/// Issues one per line, indented.
+struct IssueList<'a>(&'a [ValidationIssue]);
+
+impl fmt::Display for IssueList<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        for (i, issue) in self.0.iter().enumerate() {
+            if i > 0 {
+                writeln!(f)?;
+            }
+            write!(f, "  {issue}")?;
+        }
+        Ok(())
+    }
+}
+
+impl InputError {
+    /// The individual problems, when the error is a list of them.
+    pub fn issues(&self) -> &[ValidationIssue] {
+        match self {
+            InputError::Invalid { issues, .. } => issues,
+            _ => &[],
+        }
+    }
 }
 
 /// Loads and validates a case file; a relative `stations_csv` is resolved against the case
 /// file's folder.
 pub fn load_case(path: &Path) -> Result<Case, InputError> {
-    let _text = std::fs::read_to_string(path).map_err(|source| InputError::Read {
-        path: path.to_path_buf(),
-        source,
+    let label = path.display().to_string();
+    let text = read_limited(path, &label, "case file").map_err(|e| match e {
+        ReadFailure::Io(source) => InputError::Read {
+            path: path.to_path_buf(),
+            source,
+        },
+        ReadFailure::Other(e) => e,
     })?;
-    unimplemented!("input helper")
+    let base_dir = path.parent().unwrap_or_else(|| Path::new(""));
+    parse_case(&text, base_dir, &label)
+}
+
+/// Parses and validates case-file text. `base_dir` is where a relative `stations_csv` is
+/// looked for; `file_label` names the file in messages.
+pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case, InputError> {
+    let label = file_label.to_string();
+    if text.len() as u64 > MAX_INPUT_BYTES {
+        return Err(InputError::TooLarge {
+            label,
+            kind: "case file",
+            size: MegaBytes(text.len() as u64),
+        });
+    }
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    if text.trim().is_empty() {
+        return Err(InputError::Empty { label });
+    }
+    let table: toml::Table = toml::from_str(text).map_err(|e| {
+        let (line, column) = e
+            .span()
+            .map(|s| line_column(text, s.start))
+            .unwrap_or((1, 1));
+        InputError::Syntax {
+            label: label.clone(),
+            line,
+            column,
+            message: e.message().trim().replace('\n', "; "),
+        }
+    })?;
+    if table.is_empty() {
+        return Err(InputError::Empty { label });
+    }
+    let raw = decode::decode_case(table).map_err(|issues| InputError::Invalid {
+        label: label.clone(),
+        issues,
+    })?;
+
+    let csv = match &raw.shell.stations_csv {
+        Some(name) if raw.shell.stations.is_none() => {
+            let csv_path = base_dir.join(name);
+            let text = read_limited(&csv_path, name, "stations CSV").map_err(|e| match e {
+                ReadFailure::Io(source) => InputError::StationsCsv {
+                    label: label.clone(),
+                    path: csv_path.clone(),
+                    source,
+                },
+                ReadFailure::Other(e) => e,
+            })?;
+            match parse_stations_csv(&text, name) {
+                Ok(csv) => Some(csv),
+                Err(csv_issues) => {
+                    // Report the CSV's problems together with the rest of the case file's.
+                    let mut issues = csv_issues;
+                    if let Err(more) = validate::validate(
+                        &raw,
+                        Some(&CsvStations {
+                            label: name.clone(),
+                            rows: Vec::new(),
+                        }),
+                    ) {
+                        issues.extend(
+                            more.into_iter()
+                                .filter(|i| !i.path.starts_with(name.as_str())),
+                        );
+                    }
+                    return Err(InputError::Invalid { label, issues });
+                }
+            }
+        }
+        _ => None,
+    };
+    validate::validate(&raw, csv.as_ref()).map_err(|issues| InputError::Invalid { label, issues })
+}
+
+/// The built-in demo case (an invented 210 m flue stack).
+pub fn demo_case() -> Case {
+    // The embedded text is fixed at compile time and checked by a unit test below, so a
+    // failure here is a build defect, not bad user input.
+    parse_case(DEMO_CASE_TOML, Path::new("."), "built-in demo case")
+        .expect("the embedded demo case is valid (checked by tests)")
+}
+
+enum ReadFailure {
+    Io(std::io::Error),
+    Other(InputError),
+}
+
+/// Reads a text file, refusing files over [`MAX_INPUT_BYTES`] before reading them.
+fn read_limited(path: &Path, label: &str, kind: &'static str) -> Result<String, ReadFailure> {
+    let size = std::fs::metadata(path).map_err(ReadFailure::Io)?.len();
+    if size > MAX_INPUT_BYTES {
+        return Err(ReadFailure::Other(InputError::TooLarge {
+            label: label.to_string(),
+            kind,
+            size: MegaBytes(size),
+        }));
+    }
+    let bytes = std::fs::read(path).map_err(ReadFailure::Io)?;
+    String::from_utf8(bytes).map_err(|_| {
+        ReadFailure::Other(InputError::NotText {
+            label: label.to_string(),
+        })
+    })
+}
+
+/// 1-based line and character column of a byte offset.
+fn line_column(text: &str, offset: usize) -> (usize, usize) {
+    let mut offset = offset.min(text.len());
+    while !text.is_char_boundary(offset) {
+        offset -= 1;
+    }
+    let before = &text[..offset];
+    let line = before.matches('\n').count() + 1;
+    let line_start = before.rfind('\n').map(|i| i + 1).unwrap_or(0);
+    let column = before[line_start..].chars().count() + 1;
+    (line, column)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn demo_case_is_valid() {
+        let case = demo_case();
+        assert!(case.title.to_lowercase().contains("invented"));
+        assert!(case.shell.stations.len() >= 5);
+        assert_eq!(case.stages.len(), 3);
+    }
+
+    #[test]
+    fn line_column_counts_from_one() {
+        assert_eq!(line_column("ab\ncd", 0), (1, 1));
+        assert_eq!(line_column("ab\ncd", 4), (2, 2));
+        assert_eq!(line_column("é\nx", 1), (1, 1));
+    }
+
+    #[test]
+    fn megabytes_display() {
+        assert_eq!(MegaBytes(52 * 1024 * 1024).to_string(), "52 MB");
+        assert_eq!(MegaBytes(10 * 1024 * 1024 + 200_000).to_string(), "10.2 MB");
+    }
 }

@@ -1,0 +1,321 @@
+//! Shell stations from a CSV file: columns `z_m`, `outer_diameter_m`, `wall_m` (metres, the
+//! unit is in the column name), found by header name in any order.
+//!
+//! Spreadsheet exports are forgiving about what they write, so this reader is forgiving about
+//! layout and strict about numbers: a UTF-8 byte-order mark, CRLF line endings, blank rows,
+//! `#` comment lines and spaces around cells are accepted; a semicolon or tab separated file
+//! (usual where the comma is the decimal separator) is recognised from its header. A comma
+//! decimal (`0,45`), a stray unit (`16 m`), an empty cell, an unknown, duplicated or missing
+//! column is reported with its line and column, every problem at once.
+
+use csv::{ReaderBuilder, Trim};
+
+use super::issue::{suggestion, ValidationIssue};
+use super::raw::RawStation;
+
+/// The columns of a stations CSV.
+pub const STATION_COLUMNS: [&str; 3] = ["z_m", "outer_diameter_m", "wall_m"];
+
+/// One station read from the CSV, with the line it came from (1-based, as an editor shows).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CsvStation {
+    pub line: u64,
+    pub station: RawStation,
+}
+
+/// Stations read from a CSV file, labelled as the case file names the file.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CsvStations {
+    /// The file as named in `stations_csv`, used in every message about it.
+    pub label: String,
+    pub rows: Vec<CsvStation>,
+}
+
+/// Parses the text of a stations CSV; `label` names the file in messages.
+pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<ValidationIssue>> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    let header_line = text
+        .lines()
+        .find(|l| !l.trim().is_empty() && !l.trim_start().starts_with('#'))
+        .unwrap_or("");
+    let delimiter = if !header_line.contains(',') && header_line.contains(';') {
+        b';'
+    } else if !header_line.contains(',') && header_line.contains('\t') {
+        b'\t'
+    } else {
+        b','
+    };
+    let mut reader = ReaderBuilder::new()
+        .delimiter(delimiter)
+        .trim(Trim::All)
+        .flexible(true)
+        .comment(Some(b'#'))
+        .has_headers(true)
+        .from_reader(text.as_bytes());
+
+    let mut issues = Vec::new();
+    let header_place = format!("{label} header");
+    let headers: Vec<String> = match reader.headers() {
+        Ok(h) => h.iter().map(str::to_string).collect(),
+        Err(e) => {
+            return Err(vec![ValidationIssue::key(
+                header_place,
+                format!("cannot read the header row: {e}"),
+            )])
+        }
+    };
+    if headers.iter().all(|h| h.is_empty()) {
+        return Err(vec![ValidationIssue::key(
+            label,
+            "no header row; the first line must name the columns z_m,outer_diameter_m,wall_m",
+        )]);
+    }
+
+    // Column index of each station field.
+    let mut index: [Option<usize>; 3] = [None; 3];
+    for (i, name) in headers.iter().enumerate() {
+        match STATION_COLUMNS.iter().position(|c| c == name) {
+            Some(k) if index[k].is_some() => issues.push(ValidationIssue::new(
+                header_place.clone(),
+                format!("\"{name}\""),
+                "column given twice",
+            )),
+            Some(k) => index[k] = Some(i),
+            None => issues.push(ValidationIssue::new(
+                header_place.clone(),
+                format!("\"{name}\""),
+                format!(
+                    "unknown column; {} (columns: z_m, outer_diameter_m, wall_m)",
+                    suggestion(name, &STATION_COLUMNS)
+                ),
+            )),
+        }
+    }
+    for (k, column) in STATION_COLUMNS.iter().enumerate() {
+        if index[k].is_none() {
+            issues.push(ValidationIssue::key(
+                label,
+                format!("missing column {column} (columns: z_m, outer_diameter_m, wall_m)"),
+            ));
+        }
+    }
+    if !issues.is_empty() {
+        return Err(issues);
+    }
+
+    let mut rows = Vec::new();
+    for record in reader.records() {
+        let record = match record {
+            Ok(r) => r,
+            Err(e) => {
+                let line = e.position().map(|p| line_of(text, p.byte())).unwrap_or(0);
+                issues.push(ValidationIssue::key(
+                    format!("{label} line {line}"),
+                    format!("cannot read the row: {e}"),
+                ));
+                continue;
+            }
+        };
+        let line = record
+            .position()
+            .map(|p| line_of(text, p.byte()))
+            .unwrap_or(0);
+        if record.iter().all(str::is_empty) {
+            continue;
+        }
+        if record.len() != headers.len() {
+            let hint = if delimiter == b',' && record.len() > headers.len() {
+                "; a comma inside a number? use a point as the decimal separator"
+            } else {
+                ""
+            };
+            issues.push(ValidationIssue::key(
+                format!("{label} line {line}"),
+                format!(
+                    "{} values but the header has {} columns{hint}",
+                    record.len(),
+                    headers.len()
+                ),
+            ));
+            continue;
+        }
+        let mut values = [0.0; 3];
+        let mut ok = true;
+        for (k, column) in STATION_COLUMNS.iter().enumerate() {
+            let cell = index[k].and_then(|i| record.get(i)).unwrap_or("");
+            match parse_cell(cell) {
+                Ok(v) => values[k] = v,
+                Err(rule) => {
+                    ok = false;
+                    issues.push(ValidationIssue::new(
+                        format!("{label} line {line}, column {column}"),
+                        format!("\"{cell}\""),
+                        rule,
+                    ));
+                }
+            }
+        }
+        if ok {
+            rows.push(CsvStation {
+                line,
+                station: RawStation {
+                    z_m: values[0],
+                    outer_diameter_m: values[1],
+                    wall_m: values[2],
+                },
+            });
+        }
+    }
+    if issues.is_empty() {
+        Ok(CsvStations {
+            label: label.to_string(),
+            rows,
+        })
+    } else {
+        Err(issues)
+    }
+}
+
+/// 1-based editor line of a record from its csv byte position. csv reports the position
+/// where it started reading the record, which can be the end of the previous line (before
+/// its line break and any empty or comment lines), so those are skipped first.
+fn line_of(text: &str, byte: u64) -> u64 {
+    let bytes = text.as_bytes();
+    let mut start = usize::try_from(byte).unwrap_or(usize::MAX).min(bytes.len());
+    loop {
+        while start < bytes.len() && matches!(bytes[start], b'\n' | b'\r') {
+            start += 1;
+        }
+        if start < bytes.len() && bytes[start] == b'#' {
+            while start < bytes.len() && bytes[start] != b'\n' {
+                start += 1;
+            }
+        } else {
+            break;
+        }
+    }
+    bytes[..start].iter().filter(|&&b| b == b'\n').count() as u64 + 1
+}
+
+/// One number in metres, or why it is not one.
+fn parse_cell(cell: &str) -> Result<f64, String> {
+    if cell.is_empty() {
+        return Err("empty cell; every row needs all three values".into());
+    }
+    if let Ok(v) = cell.parse::<f64>() {
+        return Ok(v);
+    }
+    if cell.contains(',') && cell.replacen(',', ".", 1).parse::<f64>().is_ok() {
+        return Err("not a number; use a point as the decimal separator".into());
+    }
+    let numeric_part = cell.trim_end_matches(|c: char| c.is_alphabetic() || c.is_whitespace());
+    if numeric_part.len() < cell.len() && numeric_part.parse::<f64>().is_ok() {
+        return Err("not a number; leave out the unit (the column name gives it: metres)".into());
+    }
+    Err("not a number".into())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn ok(text: &str) -> Vec<(u64, [f64; 3])> {
+        parse_stations_csv(text, "s.csv")
+            .expect("valid CSV")
+            .rows
+            .iter()
+            .map(|r| {
+                (
+                    r.line,
+                    [r.station.z_m, r.station.outer_diameter_m, r.station.wall_m],
+                )
+            })
+            .collect()
+    }
+
+    fn errs(text: &str) -> Vec<String> {
+        parse_stations_csv(text, "s.csv")
+            .expect_err("invalid CSV")
+            .iter()
+            .map(|i| i.to_string())
+            .collect()
+    }
+
+    #[test]
+    fn columns_in_any_order_with_bom_crlf_blank_rows_and_spaces() {
+        let text = "\u{feff}wall_m, z_m ,outer_diameter_m\r\n0.5,0,12\r\n\r\n , , \r\n 0.3 , 80 , 8.5 \r\n";
+        assert_eq!(ok(text), vec![(2, [0.0, 12.0, 0.5]), (5, [80.0, 8.5, 0.3])]);
+    }
+
+    #[test]
+    fn semicolon_file_with_comma_decimals_is_explained() {
+        let e = errs("z_m;outer_diameter_m;wall_m\n0;12;0,45\n");
+        assert_eq!(
+            e,
+            vec![r#"s.csv line 2, column wall_m = "0,45": not a number; use a point as the decimal separator"#.to_string()]
+        );
+    }
+
+    #[test]
+    fn comma_decimals_in_comma_file_are_explained() {
+        let e = errs("z_m,outer_diameter_m,wall_m\n0,12,0,45\n");
+        assert_eq!(e.len(), 1);
+        assert!(
+            e[0].starts_with(
+                "s.csv line 2: 4 values but the header has 3 columns; a comma inside a number?"
+            ),
+            "{e:?}"
+        );
+    }
+
+    #[test]
+    fn stray_unit_empty_cell_and_garbage() {
+        let e = errs("z_m,outer_diameter_m,wall_m\n0,16 m,\n10,abc,0.4\n");
+        assert_eq!(e.len(), 3, "{e:?}");
+        assert!(
+            e[0].contains(r#"column outer_diameter_m = "16 m": not a number; leave out the unit"#)
+        );
+        assert!(e[1].contains(r#"column wall_m = "": empty cell"#));
+        assert!(e[2].contains(r#"line 3, column outer_diameter_m = "abc": not a number"#));
+    }
+
+    #[test]
+    fn missing_unknown_and_duplicate_columns() {
+        let e = errs("z_m,diameter_m,z_m\n0,1,2\n");
+        assert!(
+            e.iter().any(|m| m.starts_with(
+                r#"s.csv header = "diameter_m": unknown column; did you mean outer_diameter_m?"#
+            )),
+            "{e:?}"
+        );
+        assert!(
+            e.iter()
+                .any(|m| m == r#"s.csv header = "z_m": column given twice"#),
+            "{e:?}"
+        );
+        assert!(
+            e.iter()
+                .any(|m| m.starts_with("s.csv: missing column outer_diameter_m")),
+            "{e:?}"
+        );
+        assert!(
+            e.iter()
+                .any(|m| m.starts_with("s.csv: missing column wall_m")),
+            "{e:?}"
+        );
+    }
+
+    #[test]
+    fn empty_file_has_no_header() {
+        let e = errs("");
+        assert!(e[0].starts_with("s.csv: no header row"), "{e:?}");
+    }
+
+    #[test]
+    fn comment_lines_are_skipped() {
+        assert_eq!(
+            ok("# invented\nz_m,outer_diameter_m,wall_m\n# base\n0,10,0.4\n"),
+            vec![(4, [0.0, 10.0, 0.4])]
+        );
+    }
+}
