@@ -50,12 +50,24 @@ fn check_range(option: &str, value: usize, lo: usize, hi: usize) -> anyhow::Resu
 
 fn run(cli: Cli) -> anyhow::Result<CommandReport> {
     match cli.command {
-        Command::Modes { case, out, modes, elements } => {
+        Command::Modes {
+            case,
+            out,
+            modes,
+            elements,
+        } => {
             check_range("--modes", modes, 1, 20)?;
             if let Some(n) = elements {
                 check_range("--elements", n, 1, 200_000)?;
             }
-            Ok(commands::modes::run(case.as_deref(), &out, ModalOptions { modes, min_elements: elements })?)
+            Ok(commands::modes::run(
+                case.as_deref(),
+                &out,
+                ModalOptions {
+                    modes,
+                    min_elements: elements,
+                },
+            )?)
         }
     }
 }

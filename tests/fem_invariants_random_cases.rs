@@ -5,6 +5,7 @@
 //! * frequencies scale as sqrt(E / rho) and as 1 / L for a geometrically similar stack;
 //! * adding lining mass never raises a frequency (Rayleigh quotient);
 //! * stiffness_factor s scales every frequency by sqrt(s) exactly.
+//!
 //! Sources: dimensional analysis and Rayleigh's principle (common practice).
 
 mod common;

@@ -76,7 +76,7 @@ fn frequencies_converge_monotonically_from_above() {
     // (Rayleigh-Ritz property; common practice).
     let case = tapered_case();
     let stage = case.stages[0].clone();
-    let mut last = vec![f64::INFINITY; 3];
+    let mut last = [f64::INFINITY; 3];
     for n in [8, 16, 32, 64] {
         let r = analyse_stage(
             &case,

@@ -297,13 +297,6 @@ impl Element {
         stiffness[2][3] = k12;
         stiffness[3][2] = k12;
         stiffness[3][3] = k22;
-        for i in 0..6 {
-            for j in 0..i {
-                let avg = 0.5 * (mass[i][j] + mass[j][i]);
-                mass[i][j] = avg;
-                mass[j][i] = avg;
-            }
-        }
         Element {
             length_m: h,
             flexibility,
