@@ -16,3 +16,4 @@ pub mod fem;
 pub mod input;
 pub mod modal;
 pub mod section;
+pub mod wind;
