@@ -41,7 +41,11 @@ fn approach1_with_table_k_reproduces_0_0535() {
 fn full_pipeline_on_the_table_mode_shape() {
     let model = common::uniform_tube(80.0, 4.0, 0.3, 12000.0, 40);
     let mode = common::parabola_mode(&model, 1, 0.5, 12000.0);
-    let case = common::case(common::uniform_wind(30.0), VortexMethod::En1991E1, Criteria::default());
+    let case = common::case(
+        common::uniform_wind(30.0),
+        VortexMethod::En1991E1,
+        Criteria::default(),
+    );
     let r = wind::check_mode(&case, "lined", &model, &mode);
 
     assert_eq!(r.reference_height_m, 80.0);
@@ -118,7 +122,11 @@ fn exact_cantilever_shape_lowers_k_by_six_percent() {
     // Kw over the top 0.3 h: 0.6087 (same Python calculation) -> still capped at 0.6
     let kw = approach1::kw_mode_shape(&shape, 80.0, 24.0);
     assert!((kw - 0.608_67).abs() < 1e-4);
-    let case = common::case(common::uniform_wind(30.0), VortexMethod::En1991E1, Criteria::default());
+    let case = common::case(
+        common::uniform_wind(30.0),
+        VortexMethod::En1991E1,
+        Criteria::default(),
+    );
     let r = wind::check_mode(&case, "lined", &model, &mode);
     let y = r.approach1.unwrap().y_max_m;
     assert!((y / 0.054_580 - 0.9396).abs() < 1e-3, "y = {y}");

@@ -73,12 +73,17 @@ pub fn amplitude(p: &Approach2Params) -> Amplitude2 {
     let b = p.diameter_m;
     let a2 = A_L * A_L;
     let c1 = 0.5 * a2 * (1.0 - p.scruton / (4.0 * PI * k_a));
-    let c2 = p.air_density_kg_m3 * b * b / p.equivalent_mass_kg_m * (a2 / k_a)
+    let c2 = p.air_density_kg_m3 * b * b / p.equivalent_mass_kg_m
+        * (a2 / k_a)
         * (c_c * c_c / p.strouhal.powi(4))
         * (b / p.height_m);
     let root = (c1 * c1 + c2).sqrt();
     // c1 + root cancels badly when c1 < 0 (high Sc): use c2 / (root - c1) there.
-    let var = if c1 >= 0.0 { c1 + root } else { c2 / (root - c1) };
+    let var = if c1 >= 0.0 {
+        c1 + root
+    } else {
+        c2 / (root - c1)
+    };
     let sigma_y_m = b * var.sqrt();
     let k_p = peak_factor(p.scruton, k_a);
     Amplitude2 {

@@ -47,7 +47,10 @@ pub fn internal_forces(
 ) {
     let z = shape.z_m();
     let n = z.len();
-    assert!(shear_n.len() == n && moment_nm.len() == n, "output length must equal node count");
+    assert!(
+        shear_n.len() == n && moment_nm.len() == n,
+        "output length must equal node count"
+    );
     let point_at = |i: usize| -> f64 {
         point_forces_n
             .iter()

@@ -32,9 +32,17 @@ impl<'a> ModeShape<'a> {
     #[track_caller]
     pub fn new(z_m: &'a [f64], phi: &'a [f64], slope_per_m: Option<&'a [f64]>) -> Self {
         assert!(z_m.len() >= 2, "a mode shape needs at least two nodes");
-        assert_eq!(z_m.len(), phi.len(), "node heights and displacements differ in length");
+        assert_eq!(
+            z_m.len(),
+            phi.len(),
+            "node heights and displacements differ in length"
+        );
         if let Some(s) = slope_per_m {
-            assert_eq!(z_m.len(), s.len(), "node heights and slopes differ in length");
+            assert_eq!(
+                z_m.len(),
+                s.len(),
+                "node heights and slopes differ in length"
+            );
         }
         ModeShape {
             z_m,
@@ -106,7 +114,12 @@ impl<'a> ModeShape<'a> {
     }
 
     /// Integral over [a, b] (clipped to the structure) of f(element, t, z, Phi) dz.
-    pub fn integrate(&self, a_m: f64, b_m: f64, mut f: impl FnMut(usize, f64, f64, f64) -> f64) -> f64 {
+    pub fn integrate(
+        &self,
+        a_m: f64,
+        b_m: f64,
+        mut f: impl FnMut(usize, f64, f64, f64) -> f64,
+    ) -> f64 {
         let a = a_m.max(self.z_m[0]);
         let b = b_m.min(self.height_m());
         if b <= a {

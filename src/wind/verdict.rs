@@ -119,7 +119,10 @@ mod tests {
         let v = judge(&c, false, r, 8.0, &[]);
         assert_eq!(v.to_string(), "exceeds: tip amplitude 0.410 m > 0.350 m");
         assert_eq!(judge(&c, true, r, 8.0, &[]), Verdict::Clear);
-        assert_eq!(judge(&Criteria::default(), false, r, 8.0, &[]), Verdict::Response);
+        assert_eq!(
+            judge(&Criteria::default(), false, r, 8.0, &[]),
+            Verdict::Response
+        );
         let ok = Response {
             tip_amplitude_m: Some(0.1),
             max_stress_pa: Some(1e6),
@@ -130,9 +133,6 @@ mod tests {
             ..Criteria::default()
         };
         assert!(judge(&frac, false, r, 8.0, &[]).is_exceeds());
-        assert_eq!(
-            serde_json::to_string(&Verdict::Clear).unwrap(),
-            "\"clear\""
-        );
+        assert_eq!(serde_json::to_string(&Verdict::Clear).unwrap(), "\"clear\"");
     }
 }

@@ -109,7 +109,13 @@ pub fn parabola_mode(model: &StageModel, number: usize, f: f64, m_e: f64) -> Mod
 /// Exact Euler-Bernoulli cantilever mode (Blevins, Formulas for Natural Frequency and Mode
 /// Shape, table 8-1: lambda_1..5), normalised to 1 at the tip.
 pub fn cantilever_mode(model: &StageModel, number: usize, f: f64, m_e: f64) -> Mode {
-    const LAMBDA: [f64; 5] = [1.875_104_07, 4.694_091_13, 7.854_757_44, 10.995_540_73, 14.137_168_39];
+    const LAMBDA: [f64; 5] = [
+        1.875_104_07,
+        4.694_091_13,
+        7.854_757_44,
+        10.995_540_73,
+        14.137_168_39,
+    ];
     let l = LAMBDA[number - 1];
     let h = model.height_m();
     let s = (l.cosh() + l.cos()) / (l.sinh() + l.sin());
