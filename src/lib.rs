@@ -21,3 +21,4 @@ pub mod input;
 pub mod modal;
 pub mod report;
 pub mod section;
+pub mod wind;

@@ -1,0 +1,267 @@
+//! A borrowed view of one mode shape along the height, with exact-enough integrals over it.
+//!
+//! Units: heights in m, the shape dimensionless (normalised to max |Phi| = 1 by `modal`),
+//! slopes in 1/m. Between nodes the shape is the cubic Hermite interpolant of the nodal
+//! displacements and rotations, i.e. exactly the shape the beam elements carry (any FE text on
+//! Hermite beam elements). Without rotations it falls back to linear interpolation.
+//! Integrals use 4-point Gauss-Legendre per element (exact for polynomials up to degree 7, so
+//! exact for Phi, Phi^2 and m Phi^2 with linear m on a Hermite element; |Phi| is exact except
+//! in the element where Phi changes sign).
+
+use crate::modal::{Mode, StageModel};
+
+/// Gauss-Legendre points on [0, 1] and their weights (4 points; Abramowitz & Stegun 25.4.30).
+pub(crate) const GAUSS4: [(f64, f64); 4] = [
+    (0.069_431_844_202_973_71, 0.173_927_422_568_726_93),
+    (0.330_009_478_207_571_87, 0.326_072_577_431_273_07),
+    (0.669_990_521_792_428_1, 0.326_072_577_431_273_07),
+    (0.930_568_155_797_026_3, 0.173_927_422_568_726_93),
+];
+
+/// One mode shape on the node grid of its stage (borrowed, no allocation).
+#[derive(Debug, Clone, Copy)]
+pub struct ModeShape<'a> {
+    z_m: &'a [f64],
+    phi: &'a [f64],
+    slope_per_m: Option<&'a [f64]>,
+}
+
+impl<'a> ModeShape<'a> {
+    /// A shape from node heights (strictly increasing), nodal displacements and optionally
+    /// nodal slopes dPhi/dz. Lengths must agree (programmer error otherwise).
+    #[track_caller]
+    pub fn new(z_m: &'a [f64], phi: &'a [f64], slope_per_m: Option<&'a [f64]>) -> Self {
+        assert!(z_m.len() >= 2, "a mode shape needs at least two nodes");
+        assert_eq!(
+            z_m.len(),
+            phi.len(),
+            "node heights and displacements differ in length"
+        );
+        if let Some(s) = slope_per_m {
+            assert_eq!(
+                z_m.len(),
+                s.len(),
+                "node heights and slopes differ in length"
+            );
+        }
+        ModeShape {
+            z_m,
+            phi,
+            slope_per_m,
+        }
+    }
+
+    /// The shape of `mode` on the nodes of `model`; uses the rotations when the mode has one
+    /// per node.
+    #[track_caller]
+    pub fn from_mode(model: &'a StageModel, mode: &'a Mode) -> Self {
+        let slope = (mode.rotation_per_m.len() == model.z_m.len())
+            .then_some(mode.rotation_per_m.as_slice());
+        ModeShape::new(&model.z_m, &mode.displacement, slope)
+    }
+
+    pub fn z_m(&self) -> &'a [f64] {
+        self.z_m
+    }
+
+    pub fn nodal(&self) -> &'a [f64] {
+        self.phi
+    }
+
+    /// Number of elements (node intervals).
+    pub fn elements(&self) -> usize {
+        self.z_m.len() - 1
+    }
+
+    /// Height of the top node, m.
+    pub fn height_m(&self) -> f64 {
+        self.z_m[self.z_m.len() - 1]
+    }
+
+    /// Shape at local coordinate `t` in [0, 1] of element `e`.
+    #[inline]
+    pub fn eval(&self, e: usize, t: f64) -> f64 {
+        let (p0, p1) = (self.phi[e], self.phi[e + 1]);
+        match self.slope_per_m {
+            Some(s) => {
+                let l = self.z_m[e + 1] - self.z_m[e];
+                let t2 = t * t;
+                let t3 = t2 * t;
+                p0 * (1.0 - 3.0 * t2 + 2.0 * t3)
+                    + s[e] * l * (t - 2.0 * t2 + t3)
+                    + p1 * (3.0 * t2 - 2.0 * t3)
+                    + s[e + 1] * l * (t3 - t2)
+            }
+            None => p0 + (p1 - p0) * t,
+        }
+    }
+
+    /// Element index containing height `z_m` (clamped to the ends).
+    pub fn element_at(&self, z_m: f64) -> usize {
+        let n = self.z_m.len();
+        match self.z_m.partition_point(|&z| z <= z_m) {
+            0 => 0,
+            i if i >= n => n - 2,
+            i => i - 1,
+        }
+    }
+
+    /// Shape at height `z_m` (clamped to the structure).
+    pub fn value_at(&self, z_m: f64) -> f64 {
+        let e = self.element_at(z_m);
+        let (za, zb) = (self.z_m[e], self.z_m[e + 1]);
+        self.eval(e, ((z_m - za) / (zb - za)).clamp(0.0, 1.0))
+    }
+
+    /// Integral over [a, b] (clipped to the structure) of f(element, t, z, Phi) dz.
+    pub fn integrate(
+        &self,
+        a_m: f64,
+        b_m: f64,
+        mut f: impl FnMut(usize, f64, f64, f64) -> f64,
+    ) -> f64 {
+        let a = a_m.max(self.z_m[0]);
+        let b = b_m.min(self.height_m());
+        if b <= a {
+            return 0.0;
+        }
+        let mut sum = 0.0;
+        for e in self.element_at(a)..self.elements() {
+            let (za, zb) = (self.z_m[e], self.z_m[e + 1]);
+            if za >= b {
+                break;
+            }
+            let lo = a.max(za);
+            let hi = b.min(zb);
+            if hi <= lo {
+                continue;
+            }
+            let len = zb - za;
+            for &(x, w) in &GAUSS4 {
+                let z = lo + (hi - lo) * x;
+                let t = (z - za) / len;
+                sum += w * (hi - lo) * f(e, t, z, self.eval(e, t));
+            }
+        }
+        sum
+    }
+
+    /// int_a^b |Phi| dz, m.
+    pub fn integral_abs(&self, a_m: f64, b_m: f64) -> f64 {
+        self.integrate(a_m, b_m, |_, _, _, p| p.abs())
+    }
+
+    /// int_a^b Phi dz, m.
+    pub fn integral(&self, a_m: f64, b_m: f64) -> f64 {
+        self.integrate(a_m, b_m, |_, _, _, p| p)
+    }
+
+    /// int_a^b Phi^2 dz, m.
+    pub fn integral_sq(&self, a_m: f64, b_m: f64) -> f64 {
+        self.integrate(a_m, b_m, |_, _, _, p| p * p)
+    }
+
+    /// Node index of the largest |Phi| (the mode's largest antinode; the top for mode 1).
+    pub fn largest_antinode(&self) -> usize {
+        let mut best = 0;
+        for (i, p) in self.phi.iter().enumerate() {
+            if p.abs() > self.phi[best].abs() {
+                best = i;
+            }
+        }
+        best
+    }
+}
+
+/// Distributed mass per metre inside element `e` at local coordinate `t`, kg/m: shell mass
+/// linear between the nodes; lining mass linear between the nodes only where both nodes carry
+/// lining, else zero. `StageModel` stores at a lining end the value just inside the zone, and
+/// the mesh has a node on every lining end, so an element with lining at only one end lies
+/// outside the zone.
+#[inline]
+pub fn element_mass_kg_m(model: &StageModel, e: usize, t: f64) -> f64 {
+    let shell = model.shell_mass_kg_m[e] * (1.0 - t) + model.shell_mass_kg_m[e + 1] * t;
+    let (l0, l1) = (model.lining_mass_kg_m[e], model.lining_mass_kg_m[e + 1]);
+    let lining = if l0 > 0.0 && l1 > 0.0 {
+        l0 * (1.0 - t) + l1 * t
+    } else {
+        0.0
+    };
+    shell + lining
+}
+
+/// Outer diameter inside element `e` at local coordinate `t`, m (linear between nodes).
+#[inline]
+pub fn element_diameter_m(model: &StageModel, e: usize, t: f64) -> f64 {
+    model.outer_diameter_m[e] * (1.0 - t) + model.outer_diameter_m[e + 1] * t
+}
+
+/// Outer diameter at height `z_m` (linear between nodes, clamped), m.
+pub fn diameter_at_m(model: &StageModel, z_m: f64) -> f64 {
+    let shape = ModeShape::new(&model.z_m, &model.outer_diameter_m, None);
+    shape.value_at(z_m)
+}
+
+/// Equivalent mass per length m_e = (int m Phi^2 ds + sum M_k Phi_k^2) / int Phi^2 ds, kg/m
+/// (EN 1991-1-4 F.14, from memory; point masses in the numerator, common practice), the same
+/// definition `modal` documents.
+pub fn equivalent_mass_kg_m(model: &StageModel, shape: &ModeShape) -> f64 {
+    let h = shape.height_m();
+    let num = shape.integrate(0.0, h, |e, t, _, p| element_mass_kg_m(model, e, t) * p * p)
+        + model
+            .point_masses
+            .iter()
+            .map(|&(i, m)| m * shape.nodal()[i].powi(2))
+            .sum::<f64>();
+    num / shape.integral_sq(0.0, h)
+}
+
+/// Generalised mass int m Phi^2 ds + sum M_k Phi_k^2 of the normalised shape, kg.
+pub fn generalised_mass_kg(model: &StageModel, shape: &ModeShape) -> f64 {
+    shape.integrate(0.0, shape.height_m(), |e, t, _, p| {
+        element_mass_kg_m(model, e, t) * p * p
+    }) + model
+        .point_masses
+        .iter()
+        .map(|&(i, m)| m * shape.nodal()[i].powi(2))
+        .sum::<f64>()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn parabola(n: usize, h: f64) -> (Vec<f64>, Vec<f64>, Vec<f64>) {
+        let z: Vec<f64> = (0..=n).map(|i| h * i as f64 / n as f64).collect();
+        let p = z.iter().map(|z| (z / h).powi(2)).collect();
+        let s = z.iter().map(|z| 2.0 * z / (h * h)).collect();
+        (z, p, s)
+    }
+
+    #[test]
+    fn hermite_reproduces_a_parabola_exactly() {
+        let (z, p, s) = parabola(5, 80.0);
+        let shape = ModeShape::new(&z, &p, Some(&s));
+        for zz in [0.0, 3.3, 17.0, 40.0, 79.9] {
+            assert!((shape.value_at(zz) - (zz / 80.0f64).powi(2)).abs() < 1e-12);
+        }
+        // int (z/h)^2 = h/3, int (z/h)^4 = h/5 (calculus).
+        assert!((shape.integral(0.0, 80.0) - 80.0 / 3.0).abs() < 1e-10);
+        assert!((shape.integral_sq(0.0, 80.0) - 16.0).abs() < 1e-10);
+        // partial interval not on nodes: int_50^80 = (80^3 - 50^3) / (3 * 80^2)
+        let exact = (80f64.powi(3) - 50f64.powi(3)) / (3.0 * 6400.0);
+        assert!((shape.integral_abs(50.0, 95.0) - exact).abs() < 1e-10);
+    }
+
+    #[test]
+    fn largest_antinode_and_element_lookup() {
+        let z = [0.0, 1.0, 2.0, 3.0];
+        let p = [0.0, -1.0, 0.5, 0.9];
+        let shape = ModeShape::new(&z, &p, None);
+        assert_eq!(shape.largest_antinode(), 1);
+        assert_eq!(shape.element_at(-1.0), 0);
+        assert_eq!(shape.element_at(1.0), 1);
+        assert_eq!(shape.element_at(3.0), 2);
+        assert_eq!(shape.element_at(9.0), 2);
+    }
+}
