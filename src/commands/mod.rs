@@ -2,6 +2,7 @@
 //! analysis, and writes its outputs (report). They return what to print and whether a check
 //! failed; the binary maps that to exit codes.
 
+pub mod check;
 pub mod modes;
 
 use std::path::{Path, PathBuf};

@@ -143,6 +143,7 @@ pub fn stage_modes(model: StageModel, modes: Vec<Mode>) -> StageModes {
             modes_reported: modes.len(),
             max_relative_residual: 0.0,
             iterations: 0,
+            sign_changes: vec![],
         },
         modes,
         elements,

@@ -1,0 +1,221 @@
+//! `check`: the main job. Modal analysis of every stage, vortex-shedding checks of the first
+//! `[vortex] modes` modes, and every output file. Exit code 1 when a criterion is exceeded.
+
+use std::path::Path;
+
+use serde::Serialize;
+
+use crate::case::Case;
+use crate::error::Error;
+use crate::modal::{analyse_case, ModalOptions, StageModes};
+use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
+use crate::report::staging::Staging;
+use crate::report::table;
+use crate::wind::{self, VortexResults};
+
+use super::modes::{modes_table, stage_modal_files};
+use super::CommandReport;
+
+/// Options of `check`.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct CheckOptions {
+    /// Minimum element count; `None` = default mesh.
+    pub min_elements: Option<usize>,
+}
+
+/// Everything `check` computed, for the report writers.
+#[derive(Debug, Clone)]
+pub struct CheckResults {
+    pub case: Case,
+    pub stages: Vec<StageModes>,
+    pub vortex: VortexResults,
+}
+
+/// One row of lock_in.csv: our own addition (not a code method), the band of heights over
+/// which the local critical speed b(z) n / St lies below the site's mean speed.
+#[derive(Debug, Clone, Serialize)]
+pub struct LockInRow {
+    pub stage: String,
+    pub mode: usize,
+    pub band_from_z_m: Option<f64>,
+    pub band_to_z_m: Option<f64>,
+    pub segments: usize,
+}
+
+/// Runs the analysis (pure; no files).
+pub fn analyse(case: Case, options: CheckOptions) -> Result<CheckResults, Error> {
+    let modal = ModalOptions {
+        modes: case.vortex.modes,
+        min_elements: options.min_elements,
+    };
+    let stages = analyse_case(&case, modal)?;
+    let vortex = wind::check_all(&case, &stages);
+    Ok(CheckResults {
+        case,
+        stages,
+        vortex,
+    })
+}
+
+fn fmt_opt(v: Option<f64>, digits: usize) -> String {
+    v.map_or_else(|| "-".to_string(), |x| format!("{x:.digits$}"))
+}
+
+fn band_text(m: &wind::ModeVortex) -> String {
+    match &m.lock_in_band {
+        Some(b) => format!("{:.0}-{:.0} m", b.from_z_m, b.to_z_m),
+        None => "none".to_string(),
+    }
+}
+
+/// The compact verdict table for the terminal.
+pub fn verdict_table(results: &CheckResults) -> String {
+    let mut rows = Vec::new();
+    for s in &results.vortex.stages {
+        for m in &s.modes {
+            let g = m.governing_summary();
+            rows.push(vec![
+                s.stage.clone(),
+                m.mode.to_string(),
+                format!("{:.3}", m.frequency_hz),
+                format!("{:.1}", m.reference_height_m),
+                format!("{:.2}", m.critical_speed_m_s),
+                format!("{:.2}", m.mean_speed_m_s),
+                format!("{:.2}", m.speed_ratio),
+                format!("{:.1}", m.scruton),
+                fmt_opt(g.tip_amplitude_m, 4),
+                fmt_opt(g.max_stress_pa.map(|p| p / 1e6), 2),
+                band_text(m),
+                m.verdict.to_string(),
+            ]);
+        }
+    }
+    table::render(
+        &[
+            "stage",
+            "mode",
+            "frequency_hz",
+            "ref_height_m",
+            "v_crit_m_s",
+            "v_mean_m_s",
+            "speed_ratio",
+            "scruton",
+            "tip_amplitude_m",
+            "max_stress_mpa",
+            "lock_in_band*",
+            "verdict",
+        ],
+        &rows,
+    )
+}
+
+fn lock_in_rows(v: &VortexResults) -> Vec<LockInRow> {
+    v.stages
+        .iter()
+        .flat_map(|s| {
+            s.modes.iter().map(move |m| LockInRow {
+                stage: safe_text(&s.stage),
+                mode: m.mode,
+                band_from_z_m: m.lock_in_band.map(|b| b.from_z_m),
+                band_to_z_m: m.lock_in_band.map(|b| b.to_z_m),
+                segments: m.lock_in_segments.len(),
+            })
+        })
+        .collect()
+}
+
+/// Writes the vortex tables (vortex.csv, loads.csv, lock_in.csv) into the staging folder.
+pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<(), Error> {
+    let mut rows = v.vortex_rows();
+    for r in &mut rows {
+        r.stage = safe_text(&r.stage);
+    }
+    staging.write("vortex.csv", &to_csv("vortex.csv", &rows)?)?;
+    let mut loads = v.load_rows();
+    for r in &mut loads {
+        r.stage = safe_text(&r.stage);
+    }
+    staging.write(
+        "loads.csv",
+        &to_csv_with_header(
+            "loads.csv",
+            &[
+                "stage",
+                "mode",
+                "z_m",
+                "inertia_force_n_m",
+                "shear_n",
+                "moment_nm",
+                "stress_pa",
+            ],
+            &loads,
+        )?,
+    )?;
+    staging.write("lock_in.csv", &to_csv("lock_in.csv", &lock_in_rows(v))?)?;
+    Ok(())
+}
+
+/// All warnings of the run, each prefixed with its stage and the modes it concerns; a
+/// message repeated for several modes of a stage is given once.
+pub fn warnings(results: &CheckResults) -> Vec<String> {
+    let mut out = Vec::new();
+    for s in &results.vortex.stages {
+        for w in &s.warnings {
+            out.push(format!("stage \"{}\": {w}", s.stage));
+        }
+        let mut grouped: Vec<(String, Vec<usize>)> = Vec::new();
+        for m in &s.modes {
+            let prefix = format!("mode {}: ", m.mode);
+            for w in &m.warnings {
+                let text = w.strip_prefix(&prefix).unwrap_or(w).to_string();
+                match grouped.iter_mut().find(|(t, _)| *t == text) {
+                    Some((_, modes)) => modes.push(m.mode),
+                    None => grouped.push((text, vec![m.mode])),
+                }
+            }
+        }
+        for (text, modes) in grouped {
+            let list: Vec<String> = modes.iter().map(|m| m.to_string()).collect();
+            let label = if modes.len() == 1 { "mode" } else { "modes" };
+            out.push(format!(
+                "stage \"{}\" {label} {}: {text}",
+                s.stage,
+                list.join(", ")
+            ));
+        }
+    }
+    out
+}
+
+/// Runs `check` on a case file (or the demo) and writes every output to `out`.
+pub fn run(
+    case_path: Option<&Path>,
+    out: &Path,
+    options: CheckOptions,
+) -> Result<CommandReport, Error> {
+    let case = super::load(case_path)?;
+    let mut staging = Staging::begin(out)?;
+    let results = analyse(case, options)?;
+    stage_modal_files(&mut staging, &results.stages)?;
+    stage_vortex_files(&mut staging, &results.vortex)?;
+    let files = staging.commit()?;
+    let mut stdout = format!("{}\n\n", results.case.title);
+    stdout.push_str(&modes_table(&results.stages));
+    stdout.push_str(&format!(
+        "vortex shedding ({}; the others are reported for comparison)\n",
+        results.case.vortex.method.key()
+    ));
+    stdout.push_str(&verdict_table(&results));
+    stdout.push_str(
+        "* lock_in_band: our own addition, not a code method: heights where b(z) n / St is below the mean wind speed.\n",
+    );
+    stdout.push_str(
+        "Screening tool: results must be checked by a licensed engineer against the local code and National Annex.\n",
+    );
+    Ok(CommandReport {
+        stdout,
+        warnings: warnings(&results),
+        check_failed: results.vortex.any_exceeds(),
+        files,
+    })
+}
