@@ -1,0 +1,81 @@
+//! The `check` command through the binary: contract columns of vortex.csv, exit codes 0
+//! (no criteria: only clear / response) and 1 (a criterion set below the computed response).
+
+use assert_cmd::Command;
+use predicates::prelude::*;
+
+const VORTEX_HEADER: &str =
+    "stage,mode,frequency_hz,reference_height_m,diameter_m,strouhal,critical_speed_m_s,\
+mean_speed_m_s,speed_ratio,reynolds,scruton,tip_amplitude_m,base_moment_nm,fatigue_cycles,verdict";
+
+fn example(extra: &str) -> (tempfile::TempDir, std::path::PathBuf) {
+    let dir = tempfile::tempdir().unwrap();
+    let text = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/examples/uniform_tube.toml"
+    ))
+    .unwrap();
+    let case = dir.path().join("case.toml");
+    std::fs::write(&case, format!("{text}\n{extra}")).unwrap();
+    (dir, case)
+}
+
+#[test]
+fn no_criteria_exits_0_with_contract_columns() {
+    let (dir, case) = example("");
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(&case)
+        .arg("--out")
+        .arg(&out)
+        .assert()
+        .code(0);
+    let vortex = std::fs::read_to_string(out.join("vortex.csv")).unwrap();
+    assert_eq!(vortex.lines().next().unwrap(), VORTEX_HEADER);
+    // Two default stages x three modes.
+    assert_eq!(vortex.lines().count(), 1 + 2 * 3);
+    for line in vortex.lines().skip(1) {
+        let verdict = line.rsplit(',').next().unwrap();
+        assert!(verdict == "clear" || verdict == "response", "{line}");
+    }
+    let loads = std::fs::read_to_string(out.join("loads.csv")).unwrap();
+    assert_eq!(
+        loads.lines().next().unwrap(),
+        "stage,mode,z_m,inertia_force_n_m,shear_n,moment_nm,stress_pa"
+    );
+}
+
+#[test]
+fn criterion_below_the_response_exits_1() {
+    let (dir, case) = example("[criteria]\ntip_amplitude_m = 0.001\n");
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(&case)
+        .arg("--out")
+        .arg(&out)
+        .assert()
+        .code(1)
+        .stdout(predicate::str::contains("exceeds: tip amplitude"));
+    assert!(
+        out.join("vortex.csv").exists(),
+        "outputs are written when a check fails"
+    );
+}
+
+#[test]
+fn generous_criterion_exits_0_with_ok() {
+    let (dir, case) = example("[criteria]\ntip_amplitude_m = 5.0\nstress_mpa = 500.0\n");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(&case)
+        .arg("--out")
+        .arg(dir.path().join("out"))
+        .assert()
+        .code(0)
+        .stdout(predicate::str::contains(" ok"));
+}
