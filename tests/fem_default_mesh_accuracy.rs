@@ -10,12 +10,33 @@ use stackwake::modal::{analyse_stage, ModalOptions};
 fn default_mesh_is_within_0_01_percent_on_the_demo() {
     let case = demo_case();
     for stage in &case.stages {
-        let coarse = analyse_stage(&case, stage, ModalOptions { modes: 5, min_elements: None }).unwrap();
-        let fine = analyse_stage(&case, stage, ModalOptions { modes: 5, min_elements: Some(4000) }).unwrap();
+        let coarse = analyse_stage(
+            &case,
+            stage,
+            ModalOptions {
+                modes: 5,
+                min_elements: None,
+            },
+        )
+        .unwrap();
+        let fine = analyse_stage(
+            &case,
+            stage,
+            ModalOptions {
+                modes: 5,
+                min_elements: Some(4000),
+            },
+        )
+        .unwrap();
         for (a, b) in coarse.modes.iter().zip(&fine.modes) {
             let rel = (a.frequency_hz - b.frequency_hz).abs() / b.frequency_hz;
             // The promise is 1e-4; the bubble elements give about 100x margin.
-            assert!(rel < 1e-6, "stage {} mode {}: rel {rel:.2e}", stage.name, a.number);
+            assert!(
+                rel < 1e-6,
+                "stage {} mode {}: rel {rel:.2e}",
+                stage.name,
+                a.number
+            );
         }
     }
 }

@@ -103,7 +103,7 @@ pub struct Approach2Result {
     pub fatigue_cycles: f64,
 }
 
-/// GB 50009-2012 App. H.1 details (comparison method; from memory, unverified).
+/// GB 50009-2012 App. H.1 details (comparison method; see wind::gb50009 for what was checked).
 #[derive(Debug, Clone, Serialize)]
 pub struct Gb50009Result {
     pub strouhal: f64,
@@ -122,7 +122,7 @@ pub struct Gb50009Result {
     pub subcritical_lock_in: bool,
     /// H1, m, when 1.2 v_H > v_cr.
     pub lock_in_start_m: Option<f64>,
-    /// lambda_j of Table H.1.1 (modes 1-3, from memory).
+    /// lambda_j of Table H.1.1 (towers, modes 1-4).
     pub lambda_table: Option<f64>,
     /// lambda_j by its defining integral over the computed shape.
     pub lambda_shape: Option<f64>,
