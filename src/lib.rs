@@ -18,3 +18,4 @@ pub mod input;
 pub mod modal;
 pub mod report;
 pub mod section;
+pub mod similitude;

@@ -3,6 +3,7 @@
 //! failed; the binary maps that to exit codes.
 
 pub mod modes;
+pub mod scale;
 
 use std::path::{Path, PathBuf};
 
