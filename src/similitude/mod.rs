@@ -106,7 +106,8 @@ pub fn design(case: &Case, length_scale: Option<f64>) -> Result<ScaleDesign, Sim
         (None, None, None) => return Err(SimilitudeError::NoLengthScale),
     };
     let mut warnings = Vec::new();
-    let blockage = tunnel.map(|(w, h)| Blockage::at_scale(&case.shell, k_l, w, h, spec.max_blockage));
+    let blockage =
+        tunnel.map(|(w, h)| Blockage::at_scale(&case.shell, k_l, w, h, spec.max_blockage));
     if let Some(b) = &blockage {
         if b.blockage_ratio > b.max_blockage * (1.0 + 1e-12) {
             warnings.push(format!(
@@ -205,7 +206,11 @@ fn in_range(spec: &ModelSpec, v: f64) -> Option<bool> {
 
 fn range_text(spec: &ModelSpec) -> String {
     let f = |v: Option<f64>| v.map(|x| format!("{x:.2}")).unwrap_or_else(|| "-".into());
-    format!("{} to {} m/s", f(spec.tunnel_speed_min_m_s), f(spec.tunnel_speed_max_m_s))
+    format!(
+        "{} to {} m/s",
+        f(spec.tunnel_speed_min_m_s),
+        f(spec.tunnel_speed_max_m_s)
+    )
 }
 
 /// Completes the plan with the modal results of the prototype and of the model (the model
