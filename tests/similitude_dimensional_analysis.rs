@@ -86,11 +86,30 @@ fn model_masses_follow_the_mass_ratio() {
         BeamTheory::EulerBernoulli,
     );
     case.linings = vec![
-        Lining { from_z_m: 0.0, to_z_m: 50.0, mass: LiningMass::PerArea { mass_per_area_kg_m2: 200.0 } },
-        Lining { from_z_m: 50.0, to_z_m: 100.0, mass: LiningMass::PerLength { mass_per_length_kg_m: 4000.0 } },
+        Lining {
+            from_z_m: 0.0,
+            to_z_m: 50.0,
+            mass: LiningMass::PerArea {
+                mass_per_area_kg_m2: 200.0,
+            },
+        },
+        Lining {
+            from_z_m: 50.0,
+            to_z_m: 100.0,
+            mass: LiningMass::PerLength {
+                mass_per_length_kg_m: 4000.0,
+            },
+        },
     ];
-    case.point_masses = vec![PointMass { z_m: 90.0, mass_kg: 20000.0, label: "cap".into() }];
-    case.base = Some(BaseSprings { rotational_nm_per_rad: Some(5e11), lateral_n_per_m: Some(4e9) });
+    case.point_masses = vec![PointMass {
+        z_m: 90.0,
+        mass_kg: 20000.0,
+        label: "cap".into(),
+    }];
+    case.base = Some(BaseSprings {
+        rotational_nm_per_rad: Some(5e11),
+        lateral_n_per_m: Some(4e9),
+    });
     let k_l = 80.0;
     case.model = Some(spec(2.5e9, 1100.0, k_l));
     let d = design(&case, None).expect("plan");
@@ -101,10 +120,16 @@ fn model_masses_follow_the_mass_ratio() {
     let m_p = 2500.0 * Annulus::new(10.0, t).area_m2();
     let (dm, tm) = model.shell.geometry_at(0.5);
     let m_m = model.shell.density_kg_m3 * Annulus::new(dm, tm).area_m2();
-    assert!((m_p / m_m / (k_l * k_l) - 1.0).abs() < 2e-3, "{}", m_p / m_m / (k_l * k_l));
+    assert!(
+        (m_p / m_m / (k_l * k_l) - 1.0).abs() < 2e-3,
+        "{}",
+        m_p / m_m / (k_l * k_l)
+    );
     // Lining per area: exactly k_l; per length: exactly k_l^2.
     match model.linings[0].mass {
-        LiningMass::PerArea { mass_per_area_kg_m2 } => {
+        LiningMass::PerArea {
+            mass_per_area_kg_m2,
+        } => {
             assert!((200.0 / mass_per_area_kg_m2 - k_l).abs() < 1e-9)
         }
         other => panic!("{other:?}"),

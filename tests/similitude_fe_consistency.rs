@@ -18,7 +18,10 @@ use stackwake::modal::{analyse_case, ModalOptions, StageModes};
 use stackwake::similitude::measured::{to_prototype, ModelMeasurement};
 use stackwake::similitude::{design, plan, ScalePlan};
 
-const OPTIONS: ModalOptions = ModalOptions { modes: 3, min_elements: Some(60) };
+const OPTIONS: ModalOptions = ModalOptions {
+    modes: 3,
+    min_elements: Some(60),
+};
 
 fn with_model(mut case: Case, e_pa: f64, rho: f64, nu: f64, k_l: f64) -> Case {
     case.model = Some(ModelSpec {
@@ -39,7 +42,11 @@ fn with_model(mut case: Case, e_pa: f64, rho: f64, nu: f64, k_l: f64) -> Case {
 /// A tapered stack with every mass and spring form the model case scales.
 fn stack(t_base: f64, t_top: f64, beam: BeamTheory) -> Case {
     let mut case = common::shell_case(
-        &[(0.0, 14.0, t_base), (60.0, 11.0, 0.5 * (t_base + t_top)), (150.0, 8.0, t_top)],
+        &[
+            (0.0, 14.0, t_base),
+            (60.0, 11.0, 0.5 * (t_base + t_top)),
+            (150.0, 8.0, t_top),
+        ],
         32e9,
         2500.0,
         beam,
@@ -47,10 +54,19 @@ fn stack(t_base: f64, t_top: f64, beam: BeamTheory) -> Case {
     case.linings = vec![Lining {
         from_z_m: 10.0,
         to_z_m: 150.0,
-        mass: LiningMass::PerLength { mass_per_length_kg_m: 2500.0 },
+        mass: LiningMass::PerLength {
+            mass_per_length_kg_m: 2500.0,
+        },
     }];
-    case.point_masses = vec![PointMass { z_m: 146.0, mass_kg: 20000.0, label: "top".into() }];
-    case.base = Some(BaseSprings { rotational_nm_per_rad: Some(9e11), lateral_n_per_m: Some(6e9) });
+    case.point_masses = vec![PointMass {
+        z_m: 146.0,
+        mass_kg: 20000.0,
+        label: "top".into(),
+    }];
+    case.base = Some(BaseSprings {
+        rotational_nm_per_rad: Some(9e11),
+        lateral_n_per_m: Some(6e9),
+    });
     case
 }
 
@@ -65,18 +81,36 @@ fn run(case: &Case) -> (ScalePlan, Vec<StageModes>, Vec<StageModes>) {
 #[test]
 fn thin_walled_euler_bernoulli_model_matches_within_half_a_percent() {
     // t/D = 0.001-0.0014 in the prototype, k_rho = 2500/1150 = 2.17.
-    let case = with_model(stack(0.014, 0.011, BeamTheory::EulerBernoulli), 3.2e9, 1150.0, 0.35, 125.0);
+    let case = with_model(
+        stack(0.014, 0.011, BeamTheory::EulerBernoulli),
+        3.2e9,
+        1150.0,
+        0.35,
+        125.0,
+    );
     let (plan, _, _) = run(&case);
     assert_eq!(plan.consistency.len(), 3);
     for r in &plan.consistency {
-        assert!(r.deviation.abs() < 0.005, "{} mode {}: {}", r.stage, r.mode, r.deviation);
+        assert!(
+            r.deviation.abs() < 0.005,
+            "{} mode {}: {}",
+            r.stage,
+            r.mode,
+            r.deviation
+        );
     }
 }
 
 #[test]
 fn deviation_vanishes_as_the_wall_thins() {
     let dev = |t: f64| {
-        let case = with_model(stack(t, t, BeamTheory::EulerBernoulli), 3.2e9, 1150.0, 0.35, 125.0);
+        let case = with_model(
+            stack(t, t, BeamTheory::EulerBernoulli),
+            3.2e9,
+            1150.0,
+            0.35,
+            125.0,
+        );
         run(&case).0.worst_deviation
     };
     let (thick, mid, thin) = (dev(0.4), dev(0.04), dev(0.004));
@@ -90,21 +124,36 @@ fn deviation_vanishes_as_the_wall_thins() {
 fn geometrically_similar_timoshenko_model_is_exact() {
     // Same density (k_rho = 1, so k_h = k_l) and same Poisson's ratio: thick walls and shear
     // deformation scale exactly.
-    let case = with_model(stack(0.6, 0.3, BeamTheory::Timoshenko), 3.0e9, 2500.0, 0.2, 50.0);
+    let case = with_model(
+        stack(0.6, 0.3, BeamTheory::Timoshenko),
+        3.0e9,
+        2500.0,
+        0.2,
+        50.0,
+    );
     let (plan, _, _) = run(&case);
     assert!(plan.worst_deviation < 1e-6, "{}", plan.worst_deviation);
 }
 
 #[test]
 fn thick_timoshenko_deviation_is_the_difference_of_the_two_fe_runs() {
-    let case = with_model(stack(0.9, 0.5, BeamTheory::Timoshenko), 3.2e9, 1150.0, 0.35, 100.0);
+    let case = with_model(
+        stack(0.9, 0.5, BeamTheory::Timoshenko),
+        3.2e9,
+        1150.0,
+        0.35,
+        100.0,
+    );
     let (plan, p, m) = run(&case);
     let k_f = plan.design.factors.frequency;
     let mut n = 0;
     for (sp, sm) in p.iter().zip(&m) {
         for (mp, mm) in sp.modes.iter().zip(&sm.modes) {
             let row = &plan.consistency[n];
-            assert_eq!((row.stage.as_str(), row.mode), (sp.stage.name.as_str(), mp.number));
+            assert_eq!(
+                (row.stage.as_str(), row.mode),
+                (sp.stage.name.as_str(), mp.number)
+            );
             let expected = mp.frequency_hz / (mm.frequency_hz * k_f) - 1.0;
             assert!((row.deviation - expected).abs() < 1e-12);
             n += 1;
@@ -117,7 +166,13 @@ fn thick_timoshenko_deviation_is_the_difference_of_the_two_fe_runs() {
 
 #[test]
 fn model_frequencies_convert_back_to_the_prototypes() {
-    let case = with_model(stack(0.014, 0.011, BeamTheory::EulerBernoulli), 3.2e9, 1150.0, 0.35, 125.0);
+    let case = with_model(
+        stack(0.014, 0.011, BeamTheory::EulerBernoulli),
+        3.2e9,
+        1150.0,
+        0.35,
+        125.0,
+    );
     let (plan, p, m) = run(&case);
     let rows: Vec<ModelMeasurement> = m[0]
         .modes
