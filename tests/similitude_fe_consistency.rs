@@ -192,3 +192,21 @@ fn model_frequencies_convert_back_to_the_prototypes() {
         assert!((f / mp.frequency_hz - 1.0).abs() < 0.005);
     }
 }
+
+#[test]
+fn html_fragment_escapes_the_title_and_shows_the_check() {
+    let mut case = with_model(
+        stack(0.014, 0.011, BeamTheory::EulerBernoulli),
+        3.2e9,
+        1150.0,
+        0.35,
+        125.0,
+    );
+    case.title = "Stack <A> & \"B\"".into();
+    let (plan, _, _) = run(&case);
+    let html = stackwake::similitude::html::render_html(&plan);
+    assert!(html.contains("Stack &lt;A&gt; &amp; &quot;B&quot;"));
+    assert!(!html.contains("<A>"));
+    assert!(html.contains("f_prototype / (f_model k_f) - 1"));
+    assert!(html.starts_with("<section") && html.trim_end().ends_with("</section>"));
+}
