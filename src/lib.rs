@@ -21,4 +21,5 @@ pub mod input;
 pub mod modal;
 pub mod report;
 pub mod section;
+pub mod similitude;
 pub mod wind;

@@ -45,6 +45,25 @@ enum Command {
         #[arg(long)]
         elements: Option<usize>,
     },
+    /// Plans an aeroelastic wind-tunnel model from the case's [model] table, checks it by
+    /// computation, and converts lab measurements on the model back to the prototype.
+    Scale {
+        /// Case file (TOML) with a [model] table.
+        case: PathBuf,
+        /// Output folder.
+        #[arg(long, default_value = "stackwake-out")]
+        out: PathBuf,
+        /// Length scale k_l = prototype / model (overrides model.length_scale).
+        #[arg(long)]
+        length_scale: Option<f64>,
+        /// The lab's measurements on the model (CSV: model_speed_m_s and any of
+        /// tip_amplitude_m, strain, stress_pa, frequency_hz).
+        #[arg(long)]
+        measured: Option<PathBuf>,
+        /// Minimum number of beam elements for both FE runs.
+        #[arg(long)]
+        elements: Option<usize>,
+    },
 }
 
 fn check_range(option: &str, value: usize, lo: usize, hi: usize) -> anyhow::Result<()> {
@@ -95,6 +114,23 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
                     min_elements: elements,
                 },
             )?)
+        }
+        Command::Scale {
+            case,
+            out,
+            length_scale,
+            measured,
+            elements,
+        } => {
+            if let Some(n) = elements {
+                check_range("--elements", n, 1, 200_000)?;
+            }
+            let options = commands::scale::ScaleOptions {
+                length_scale,
+                measured,
+                min_elements: elements,
+            };
+            Ok(commands::scale::run(&case, &out, &options)?)
         }
     }
 }

@@ -8,6 +8,7 @@
 
 pub mod decode;
 pub mod issue;
+pub mod measured_csv;
 pub mod raw;
 pub mod stations_csv;
 pub mod validate;
@@ -20,6 +21,7 @@ use thiserror::Error;
 use crate::case::Case;
 
 pub use issue::ValidationIssue;
+pub use measured_csv::{load_measured, parse_measured_csv};
 pub use stations_csv::{parse_stations_csv, CsvStations};
 
 /// Largest case file or stations CSV accepted, bytes (10 MiB; real ones are a few kB).

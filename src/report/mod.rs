@@ -3,6 +3,7 @@
 //! module besides `input` that touches files; it only reads result types.
 
 pub mod csv;
+pub mod scale_plot;
 pub mod staging;
 pub mod table;
 
