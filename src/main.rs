@@ -60,6 +60,20 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
     }
 }
 
+/// The error and its causes, each cause shown once: library messages already quote their
+/// I/O cause, so a cause whose text is already in the message is not repeated.
+fn error_text(e: &anyhow::Error) -> String {
+    let mut text = e.to_string();
+    for cause in e.chain().skip(1) {
+        let cause = cause.to_string();
+        if !text.contains(&cause) {
+            text.push_str(": ");
+            text.push_str(&cause);
+        }
+    }
+    text
+}
+
 fn main() -> ExitCode {
     std::panic::set_hook(Box::new(|info| {
         eprintln!("stackwake: internal error (this is a bug; please report it with the case file): {info}");
@@ -87,7 +101,7 @@ fn main() -> ExitCode {
             ExitCode::from(if report.check_failed { 1 } else { 0 })
         }
         Err(e) => {
-            eprintln!("error: {e:#}");
+            eprintln!("error: {}", error_text(&e));
             ExitCode::from(2)
         }
     }
