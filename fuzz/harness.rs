@@ -54,19 +54,28 @@ pub fn assert_case_invariants(case: &Case) {
     for st in &s.stations {
         assert!(st.outer_diameter_m.is_finite() && st.outer_diameter_m > 0.0);
         assert!(st.wall_m.is_finite() && st.wall_m > 0.0);
-        assert!(2.0 * st.wall_m < st.outer_diameter_m, "wall >= radius accepted");
+        assert!(
+            2.0 * st.wall_m < st.outer_diameter_m,
+            "wall >= radius accepted"
+        );
     }
     for l in &case.linings {
         assert!(0.0 <= l.from_z_m && l.from_z_m < l.to_z_m && l.to_z_m <= h);
     }
     for p in &case.point_masses {
-        assert!((0.0..=h).contains(&p.z_m), "point mass outside the shell accepted");
+        assert!(
+            (0.0..=h).contains(&p.z_m),
+            "point mass outside the shell accepted"
+        );
         assert!(p.mass_kg.is_finite() && p.mass_kg > 0.0);
     }
     assert!(!case.stages.is_empty());
     for st in &case.stages {
         let top = st.height_m(s);
-        assert!(top.is_finite() && top > 0.0 && top <= h, "stage top outside the shell accepted");
+        assert!(
+            top.is_finite() && top > 0.0 && top <= h,
+            "stage top outside the shell accepted"
+        );
     }
 }
 
@@ -132,7 +141,11 @@ pub fn case_text_from(data: &[u8]) -> (String, ModalOptions) {
     let mut z = 0.0;
     for i in 0..stations {
         if i > 0 {
-            z = if i + 1 == stations { height } else { z + height * steps[i - 1] / total };
+            z = if i + 1 == stations {
+                height
+            } else {
+                z + height * steps[i - 1] / total
+            };
         }
         let d = n.log_range(0.1, 200.0);
         let wall = 0.5 * d * n.log_range(0.001, 0.98);
@@ -179,7 +192,13 @@ pub fn case_text_from(data: &[u8]) -> (String, ModalOptions) {
         0 => None,
         _ => Some(n.count(1, 255) * 2),
     };
-    (t, ModalOptions { modes, min_elements })
+    (
+        t,
+        ModalOptions {
+            modes,
+            min_elements,
+        },
+    )
 }
 
 /// Bytes -> case -> modal analysis of every stage. An accepted case must give, for every
@@ -196,7 +215,10 @@ pub fn analysis(data: &[u8]) {
             for s in &stages {
                 assert_eq!(s.modes.len(), options.modes, "stage {}", s.stage.name);
                 assert_eq!(s.check.modes_reported, options.modes);
-                assert!(s.check.sturm_count >= options.modes, "completeness not proven");
+                assert!(
+                    s.check.sturm_count >= options.modes,
+                    "completeness not proven"
+                );
                 let mut last = 0.0;
                 for m in &s.modes {
                     assert!(
@@ -215,7 +237,9 @@ pub fn analysis(data: &[u8]) {
         Err(e) => {
             let msg = e.to_string();
             assert!(
-                case.stages.iter().any(|s| msg.starts_with(&format!("stage `{}`", s.name))),
+                case.stages
+                    .iter()
+                    .any(|s| msg.starts_with(&format!("stage `{}`", s.name))),
                 "solver error without the stage: {msg}"
             );
         }

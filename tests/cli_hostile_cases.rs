@@ -39,7 +39,11 @@ reference_speed_m_s = 25.0
 fn base_with_csv() -> String {
     let start = BASE.find("stations = [").expect("stations in BASE");
     let end = BASE[start..].find("]\n").expect("end of stations") + start + 2;
-    format!("{}stations_csv = \"stations.csv\"\n{}", &BASE[..start], &BASE[end..])
+    format!(
+        "{}stations_csv = \"stations.csv\"\n{}",
+        &BASE[..start],
+        &BASE[end..]
+    )
 }
 
 const GOOD_CSV: &str = "z_m,outer_diameter_m,wall_m\n0,12,0.4\n50,10,0.3\n100,8,0.2\n";
@@ -58,11 +62,21 @@ struct Row {
 }
 
 fn row(name: &'static str, case: impl Into<Vec<u8>>, expected: &str) -> Row {
-    Row { name, case: case.into(), csv: None, expected: expected.to_string() }
+    Row {
+        name,
+        case: case.into(),
+        csv: None,
+        expected: expected.to_string(),
+    }
 }
 
 fn csv_row(name: &'static str, csv: impl Into<Vec<u8>>, expected: &str) -> Row {
-    Row { name, case: base_with_csv().into_bytes(), csv: Some(csv.into()), expected: expected.to_string() }
+    Row {
+        name,
+        case: base_with_csv().into_bytes(),
+        csv: Some(csv.into()),
+        expected: expected.to_string(),
+    }
 }
 
 fn stackwake() -> Command {
@@ -175,7 +189,11 @@ fn run_row(case: &[u8], csv: Option<&[u8]>) -> (Option<i32>, String, tempfile::T
         .timeout(Duration::from_secs(120))
         .output()
         .expect("run stackwake");
-    (out.status.code(), String::from_utf8_lossy(&out.stderr).into_owned(), dir)
+    (
+        out.status.code(),
+        String::from_utf8_lossy(&out.stderr).into_owned(),
+        dir,
+    )
 }
 
 #[test]
@@ -194,16 +212,21 @@ fn hostile_cases_exit_2_with_the_exact_message() {
     let mut failures = Vec::new();
     for r in &rows {
         let (code, stderr, dir) = run_row(&r.case, r.csv.as_deref());
-        let expected = r.expected.replace("{dir}", &dir.path().display().to_string());
+        let expected = r
+            .expected
+            .replace("{dir}", &dir.path().display().to_string());
         let found = stderr
             .lines()
             .map(|l| l.trim().trim_start_matches("error: "))
             .any(|l| l == expected);
         let panicked = stderr.contains("internal error") || stderr.contains("panicked");
         let wrote = dir.path().join("out").exists()
-            || std::fs::read_dir(dir.path())
-                .expect("list")
-                .any(|e| e.expect("entry").file_name().to_string_lossy().contains("partial"));
+            || std::fs::read_dir(dir.path()).expect("list").any(|e| {
+                e.expect("entry")
+                    .file_name()
+                    .to_string_lossy()
+                    .contains("partial")
+            });
         if code != Some(2) || !found || panicked || wrote {
             failures.push(format!(
                 "{}: exit {code:?}, output written: {wrote}\n  expected line: {expected}\n  stderr: {stderr}",
@@ -237,12 +260,19 @@ fn fifty_megabyte_case_file_is_refused_by_size_quickly() {
     assert_eq!(out.status.code(), Some(2), "{stderr}");
     assert_eq!(
         stderr.trim(),
-        format!("error: {} is 50 MB; a case file is at most 10 MB", path.display())
+        format!(
+            "error: {} is 50 MB; a case file is at most 10 MB",
+            path.display()
+        )
     );
     assert!(!dir.path().join("out").exists());
     // Refused from the file size, not after parsing 50 MB; generous bound for a loaded
     // machine, this is not a speed target.
-    assert!(start.elapsed() < Duration::from_secs(20), "{:?}", start.elapsed());
+    assert!(
+        start.elapsed() < Duration::from_secs(20),
+        "{:?}",
+        start.elapsed()
+    );
 }
 
 #[test]
@@ -253,7 +283,10 @@ fn oversized_stations_csv_is_refused() {
     }
     let (code, stderr, _dir) = run_row(base_with_csv().as_bytes(), Some(csv.as_bytes()));
     assert_eq!(code, Some(2), "{stderr}");
-    assert!(stderr.contains("stations.csv is 11.0 MB; a stations CSV is at most 10 MB"), "{stderr}");
+    assert!(
+        stderr.contains("stations.csv is 11.0 MB; a stations CSV is at most 10 MB"),
+        "{stderr}"
+    );
 }
 
 #[test]
@@ -290,10 +323,22 @@ fn bom_and_crlf_case_and_csv_load_and_run() {
 #[test]
 fn bad_command_line_values_exit_2() {
     for (args, expected) in [
-        (vec!["--modes", "0"], "error: --modes = 0: must be between 1 and 20"),
-        (vec!["--modes", "21"], "error: --modes = 21: must be between 1 and 20"),
-        (vec!["--elements", "0"], "error: --elements = 0: must be between 1 and 200000"),
-        (vec!["--elements", "300000"], "error: --elements = 300000: must be between 1 and 200000"),
+        (
+            vec!["--modes", "0"],
+            "error: --modes = 0: must be between 1 and 20",
+        ),
+        (
+            vec!["--modes", "21"],
+            "error: --modes = 21: must be between 1 and 20",
+        ),
+        (
+            vec!["--elements", "0"],
+            "error: --elements = 0: must be between 1 and 20000",
+        ),
+        (
+            vec!["--elements", "20001"],
+            "error: --elements = 20001: must be between 1 and 20000",
+        ),
     ] {
         let dir = tempfile::tempdir().expect("temp dir");
         let out = stackwake()
@@ -307,7 +352,10 @@ fn bad_command_line_values_exit_2() {
         assert_eq!(String::from_utf8_lossy(&out.stderr).trim(), expected);
         assert!(!dir.path().join("out").exists());
     }
-    let out = stackwake().args(["modes", "--modes", "x"]).output().expect("run");
+    let out = stackwake()
+        .args(["modes", "--modes", "x"])
+        .output()
+        .expect("run");
     assert_eq!(out.status.code(), Some(2));
 }
 

@@ -76,7 +76,10 @@ fn output_path_that_is_a_file_is_refused() {
     assert_eq!(code, Some(2));
     assert_eq!(
         stderr.trim(),
-        format!("error: output path {} exists and is not a folder", out.display())
+        format!(
+            "error: output path {} exists and is not a folder",
+            out.display()
+        )
     );
     assert_eq!(std::fs::read(&out).expect("read"), b"keep me");
 }
@@ -115,7 +118,11 @@ fn a_blocked_file_leaves_the_existing_folder_untouched() {
     );
     // Refused before the analysis.
     assert!(stdout.is_empty(), "{stdout}");
-    assert_eq!(snapshot(dir.path()), before, "output folder changed or temp files left");
+    assert_eq!(
+        snapshot(dir.path()),
+        before,
+        "output folder changed or temp files left"
+    );
 }
 
 #[test]
@@ -133,11 +140,18 @@ fn a_failed_move_during_commit_is_rolled_back() {
     staging.write("b.csv", b"new b").expect("stage b");
     staging.write("c.csv", b"new c").expect("stage c");
     staging.write("d.csv", b"new d").expect("stage d");
-    staging.check_destinations(&["a.csv", "b.csv", "c.csv", "d.csv"]).expect("free");
+    staging
+        .check_destinations(&["a.csv", "b.csv", "c.csv", "d.csv"])
+        .expect("free");
     // Interrupt the commit half-way: the staged d.csv disappears from the temporary folder
     // (as if the disk failed), so a.csv, b.csv and c.csv are moved in before d.csv fails.
-    let tmp = dir.path().join(format!(".out.partial-{}", std::process::id()));
-    assert!(tmp.join("d.csv").is_file(), "temporary folder layout changed");
+    let tmp = dir
+        .path()
+        .join(format!(".out.partial-{}", std::process::id()));
+    assert!(
+        tmp.join("d.csv").is_file(),
+        "temporary folder layout changed"
+    );
     std::fs::remove_file(tmp.join("d.csv")).expect("remove staged file");
     let err = staging.commit().expect_err("must fail");
     assert_eq!(
@@ -161,7 +175,10 @@ fn a_successful_run_replaces_every_file_and_leaves_no_temporary_folder() {
     assert_eq!(run_demo(&out, &["--modes", "3"]).0, Some(0));
     let second = std::fs::read(out.join("modes.csv")).expect("read");
     assert_ne!(first, second);
-    assert_eq!(std::fs::read(out.join("notes.txt")).expect("read"), b"user's own file");
+    assert_eq!(
+        std::fs::read(out.join("notes.txt")).expect("read"),
+        b"user's own file"
+    );
     let names: Vec<String> = std::fs::read_dir(dir.path())
         .expect("list")
         .map(|e| e.expect("entry").file_name().to_string_lossy().into_owned())

@@ -21,7 +21,11 @@ fn replay(folder: &str, run: fn(&[u8])) -> usize {
     for path in &paths {
         let data = std::fs::read(path).expect("read corpus file");
         let outcome = std::panic::catch_unwind(|| run(&data));
-        assert!(outcome.is_ok(), "fuzz regression input {} panicked", path.display());
+        assert!(
+            outcome.is_ok(),
+            "fuzz regression input {} panicked",
+            path.display()
+        );
     }
     paths.len()
 }
@@ -44,7 +48,9 @@ fn harness_builds_valid_cases_from_plain_bytes() {
     // patterns give valid cases.
     let mut valid = 0;
     for seed in 0u8..32 {
-        let data: Vec<u8> = (0..64u8).map(|i| i.wrapping_mul(seed).wrapping_add(seed)).collect();
+        let data: Vec<u8> = (0..64u8)
+            .map(|i| i.wrapping_mul(seed).wrapping_add(seed))
+            .collect();
         let (text, _) = harness::case_text_from(&data);
         if stackwake::input::parse_case_with_csv(&text, "seed.toml", None).is_ok() {
             valid += 1;
