@@ -19,35 +19,13 @@ fn case() -> Case {
             beam: BeamTheory::Timoshenko,
             stations: stations
                 .iter()
-                .map(|&(z_m, outer_diameter_m, wall_m)| Station {
-                    z_m,
-                    outer_diameter_m,
-                    wall_m,
-                })
+                .map(|&(z_m, outer_diameter_m, wall_m)| Station { z_m, outer_diameter_m, wall_m })
                 .collect(),
         },
-        linings: vec![Lining {
-            from_z_m: 8.0,
-            to_z_m: 180.0,
-            mass: LiningMass::PerArea {
-                mass_per_area_kg_m2: 300.0,
-            },
-        }],
-        point_masses: vec![PointMass {
-            z_m: 150.0,
-            mass_kg: 30000.0,
-            label: "platform".into(),
-        }],
-        base: Some(BaseSprings {
-            rotational_nm_per_rad: Some(800e9),
-            lateral_n_per_m: Some(5e9),
-        }),
-        stages: vec![Stage {
-            name: "lined".into(),
-            lining: true,
-            stiffness_factor: 1.0,
-            top_z_m: None,
-        }],
+        linings: vec![Lining { from_z_m: 8.0, to_z_m: 180.0, mass: LiningMass::PerArea { mass_per_area_kg_m2: 300.0 } }],
+        point_masses: vec![PointMass { z_m: 150.0, mass_kg: 30000.0, label: "platform".into() }],
+        base: Some(BaseSprings { rotational_nm_per_rad: Some(800e9), lateral_n_per_m: Some(5e9) }),
+        stages: vec![Stage { name: "lined".into(), lining: true, stiffness_factor: 1.0, top_z_m: None }],
         wind: Wind {
             reference_speed_m_s: 30.0,
             reference_height_m: 10.0,
@@ -91,10 +69,7 @@ fn main() {
     let case = case();
     let stage = case.stages[0].clone();
     println!("lowest 10 modes, tapered Timoshenko shell (median wall-clock)");
-    println!(
-        "{:>10}  {:>12}  {:>12}  {:>14}",
-        "elements", "build_ms", "total_ms", "f1_hz"
-    );
+    println!("{:>10}  {:>12}  {:>12}  {:>14}", "elements", "build_ms", "total_ms", "f1_hz");
     let mut totals = Vec::new();
     for (n, runs) in [(200, 21), (2_000, 11), (20_000, 5)] {
         let build = time(runs, || {
@@ -121,8 +96,5 @@ fn main() {
     let default = time(51, || {
         std::hint::black_box(solve_stage(&case, &stage, None, 3).expect("solve"));
     });
-    println!(
-        "default mesh, 3 modes (one stage analysis): {:.3} ms",
-        default.as_secs_f64() * 1e3
-    );
+    println!("default mesh, 3 modes (one stage analysis): {:.3} ms", default.as_secs_f64() * 1e3);
 }

@@ -53,26 +53,14 @@ fn check_range(option: &str, value: usize, lo: usize, hi: usize) -> anyhow::Resu
 
 fn run(cli: Cli) -> anyhow::Result<CommandReport> {
     match cli.command {
-        Command::Modes {
-            case,
-            out,
-            modes,
-            elements,
-        } => {
+        Command::Modes { case, out, modes, elements } => {
             check_range("--modes", modes, 1, 20)?;
             if let Some(n) = elements {
                 // Beyond ~20000 elements the Sturm count that proves completeness loses its
                 // precision (K's entries grow like EI/h^3) and stages would be refused.
                 check_range("--elements", n, 1, MAX_ELEMENTS)?;
             }
-            Ok(commands::modes::run(
-                case.as_deref(),
-                &out,
-                ModalOptions {
-                    modes,
-                    min_elements: elements,
-                },
-            )?)
+            Ok(commands::modes::run(case.as_deref(), &out, ModalOptions { modes, min_elements: elements })?)
         }
     }
 }

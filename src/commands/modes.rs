@@ -36,14 +36,7 @@ pub fn modes_table(stages: &[StageModes]) -> String {
             })
             .collect();
         out.push_str(&table::render(
-            &[
-                "mode",
-                "frequency_hz",
-                "period_s",
-                "modal_mass_kg",
-                "equivalent_mass_kg_m",
-                "zero_crossings",
-            ],
+            &["mode", "frequency_hz", "period_s", "modal_mass_kg", "equivalent_mass_kg_m", "zero_crossings"],
             &rows,
         ));
         out.push_str(&format!(
@@ -63,23 +56,13 @@ pub const MODAL_FILES: [&str; 3] = ["modes.csv", "mode_shapes.csv", "sections.cs
 /// Writes modes.csv, mode_shapes.csv and sections.csv into the staging folder.
 pub fn stage_modal_files(staging: &mut Staging, stages: &[StageModes]) -> Result<(), Error> {
     staging.write("modes.csv", &to_csv("modes.csv", &mode_rows(stages))?)?;
-    staging.write(
-        "mode_shapes.csv",
-        &to_csv("mode_shapes.csv", &shape_rows(stages))?,
-    )?;
-    staging.write(
-        "sections.csv",
-        &to_csv("sections.csv", &section_rows(stages))?,
-    )?;
+    staging.write("mode_shapes.csv", &to_csv("mode_shapes.csv", &shape_rows(stages))?)?;
+    staging.write("sections.csv", &to_csv("sections.csv", &section_rows(stages))?)?;
     Ok(())
 }
 
 /// Runs `modes` on a case file (or the demo) and writes the modal tables to `out`.
-pub fn run(
-    case_path: Option<&Path>,
-    out: &Path,
-    options: ModalOptions,
-) -> Result<CommandReport, Error> {
+pub fn run(case_path: Option<&Path>, out: &Path, options: ModalOptions) -> Result<CommandReport, Error> {
     let case = super::load(case_path)?;
     // The output folder is checked before the analysis, so a blocked path costs no work.
     let mut staging = Staging::begin(out)?;

@@ -31,11 +31,7 @@ pub fn to_csv<T: Serialize>(file: &str, rows: &[T]) -> Result<Vec<u8>, ReportErr
 }
 
 /// Serialises rows, writing the header even when there are no rows.
-pub fn to_csv_with_header<T: Serialize>(
-    file: &str,
-    header: &[&str],
-    rows: &[T],
-) -> Result<Vec<u8>, ReportError> {
+pub fn to_csv_with_header<T: Serialize>(file: &str, header: &[&str], rows: &[T]) -> Result<Vec<u8>, ReportError> {
     if rows.is_empty() {
         return Ok(format!("{}\n", header.join(",")).into_bytes());
     }
