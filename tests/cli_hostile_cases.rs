@@ -378,3 +378,23 @@ fn missing_case_file_names_the_path() {
     );
     assert!(Path::new(&path).parent().is_some());
 }
+
+#[test]
+fn a_solver_refusal_names_the_stage_and_writes_nothing() {
+    // Valid input, absurd foundation (1 N m/rad, 1 N/m under a 150 m stack): the rocking
+    // mode lies ~ten decades below the bending modes. The solver must refuse, naming the
+    // stage, rather than report numbers it cannot prove complete.
+    let case = "title = \"Invented: absurdly soft foundation\"\n[shell]\nelastic_modulus_gpa = 32.0\n\
+                density_kg_m3 = 2500.0\nstations = [\n  { z_m = 0.0, outer_diameter_m = 10.0, wall_m = 0.35 },\n  \
+                { z_m = 150.0, outer_diameter_m = 10.0, wall_m = 0.35 },\n]\n[base]\n\
+                rotational_stiffness_gnm_per_rad = 1e-9\nlateral_stiffness_mn_per_m = 1e-6\n\
+                [wind]\nreference_speed_m_s = 25.0\n";
+    let (code, stderr, dir) = run_row(case.as_bytes(), None);
+    assert_eq!(code, Some(2), "{stderr}");
+    assert!(
+        stderr.starts_with("error: stage `shell only`: eigen-solver "),
+        "{stderr}"
+    );
+    assert!(!stderr.contains("internal error"), "{stderr}");
+    assert!(!dir.path().join("out").exists());
+}
