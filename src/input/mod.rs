@@ -298,6 +298,19 @@ mod tests {
     }
 
     #[test]
+    fn csv_given_as_text_matches_the_csv_read_from_disk() {
+        let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples");
+        let from_disk = load_case(&dir.join("csv_stations.toml")).expect("example loads");
+        let text = std::fs::read_to_string(dir.join("csv_stations.toml")).expect("read");
+        let csv = std::fs::read_to_string(dir.join("stations.csv")).expect("read");
+        let from_text =
+            parse_case_with_csv(&text, "csv_stations.toml", Some(&csv)).expect("text loads");
+        assert_eq!(from_disk, from_text);
+        let err = parse_case_with_csv(&text, "csv_stations.toml", None).unwrap_err();
+        assert!(matches!(err, InputError::StationsCsv { .. }), "{err}");
+    }
+
+    #[test]
     fn line_column_counts_from_one() {
         assert_eq!(line_column("ab\ncd", 0), (1, 1));
         assert_eq!(line_column("ab\ncd", 4), (2, 2));
