@@ -66,6 +66,9 @@ enum Command {
     },
 }
 
+/// Largest `--elements` accepted.
+const MAX_ELEMENTS: usize = 20_000;
+
 fn check_range(option: &str, value: usize, lo: usize, hi: usize) -> anyhow::Result<()> {
     if value < lo || value > hi {
         return Err(stackwake::error::Error::Usage {
@@ -104,7 +107,9 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
         } => {
             check_range("--modes", modes, 1, 20)?;
             if let Some(n) = elements {
-                check_range("--elements", n, 1, 200_000)?;
+                // Beyond ~20000 elements the Sturm count that proves completeness loses its
+                // precision (K's entries grow like EI/h^3) and stages would be refused.
+                check_range("--elements", n, 1, MAX_ELEMENTS)?;
             }
             Ok(commands::modes::run(
                 case.as_deref(),
@@ -135,6 +140,20 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
     }
 }
 
+/// The error and its causes, each cause shown once: library messages already quote their
+/// I/O cause, so a cause whose text is already in the message is not repeated.
+fn error_text(e: &anyhow::Error) -> String {
+    let mut text = e.to_string();
+    for cause in e.chain().skip(1) {
+        let cause = cause.to_string();
+        if !text.contains(&cause) {
+            text.push_str(": ");
+            text.push_str(&cause);
+        }
+    }
+    text
+}
+
 fn main() -> ExitCode {
     std::panic::set_hook(Box::new(|info| {
         eprintln!("stackwake: internal error (this is a bug; please report it with the case file): {info}");
@@ -162,7 +181,7 @@ fn main() -> ExitCode {
             ExitCode::from(if report.check_failed { 1 } else { 0 })
         }
         Err(e) => {
-            eprintln!("error: {e:#}");
+            eprintln!("error: {}", error_text(&e));
             ExitCode::from(2)
         }
     }

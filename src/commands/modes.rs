@@ -57,6 +57,9 @@ pub fn modes_table(stages: &[StageModes]) -> String {
     out
 }
 
+/// The files [`stage_modal_files`] writes.
+pub const MODAL_FILES: [&str; 3] = ["modes.csv", "mode_shapes.csv", "sections.csv"];
+
 /// Writes modes.csv, mode_shapes.csv and sections.csv into the staging folder.
 pub fn stage_modal_files(staging: &mut Staging, stages: &[StageModes]) -> Result<(), Error> {
     staging.write("modes.csv", &to_csv("modes.csv", &mode_rows(stages))?)?;
@@ -78,7 +81,9 @@ pub fn run(
     options: ModalOptions,
 ) -> Result<CommandReport, Error> {
     let case = super::load(case_path)?;
+    // The output folder is checked before the analysis, so a blocked path costs no work.
     let mut staging = Staging::begin(out)?;
+    staging.check_destinations(&MODAL_FILES)?;
     let stages = analyse_case(&case, options)?;
     stage_modal_files(&mut staging, &stages)?;
     let files = staging.commit()?;

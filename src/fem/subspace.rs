@@ -68,6 +68,17 @@ fn projected_eigen(
     mr: DMatrix<f64>,
 ) -> Result<(Vec<f64>, DMatrix<f64>), SolverError> {
     let p = kr.nrows();
+    // Scale the basis to unit M-norm first (symmetric diagonal scaling of the pencil; the
+    // subspace and so the Ritz pairs are unchanged). K^-1 M shrinks each direction by its
+    // eigenvalue, so when the spectrum spans many decades (huge point masses, a very soft
+    // base spring) the unscaled mr has a condition number ~ (lambda_p / lambda_1)^2 that
+    // makes its Cholesky factorisation fail although the basis is well conditioned.
+    let scale: Vec<f64> = (0..p).map(|i| 1.0 / mr[(i, i)].sqrt()).collect();
+    if scale.iter().any(|s| !s.is_finite() || *s <= 0.0) {
+        return Err(SolverError::LostBasis);
+    }
+    let kr = DMatrix::from_fn(p, p, |i, j| kr[(i, j)] * scale[i] * scale[j]);
+    let mr = DMatrix::from_fn(p, p, |i, j| mr[(i, j)] * scale[i] * scale[j]);
     let chol = mr.cholesky().ok_or(SolverError::LostBasis)?;
     let l = chol.l();
     // C = L^-1 Kr L^-T.
@@ -87,11 +98,62 @@ fn projected_eigen(
         v.set_column(k, &eig.eigenvectors.column(i));
     }
     // Q = L^-T V.
-    let q = l
+    let mut q = l
         .transpose()
         .solve_upper_triangular(&v)
         .ok_or(SolverError::LostBasis)?;
+    for (i, s) in scale.iter().enumerate() {
+        q.row_mut(i).scale_mut(*s);
+    }
     Ok((values, q))
+}
+
+/// Modified Gram-Schmidt in the M inner product (two passes) on the columns of
+/// Y = K^-1 M X, applying the same column operations to `my` (= M Y) and `mx` (= M X), so
+/// Y = K^-1 (M X) still holds exactly and the projected stiffness stays Y^T (M X).
+///
+/// Why: K^-1 M scales each eigen-direction by 1 / lambda. When the spectrum spans many
+/// decades (point masses 100 times the shell, a soft base spring) the columns of Y all lean
+/// towards the lowest modes and the projected mass Y^T M Y becomes numerically singular,
+/// although Y still holds the other directions to several digits; orthonormalising the
+/// columns first recovers them. A column with less than ~1000 rounding units of its own
+/// left is reported as a lost basis.
+fn m_orthonormalize(y: &mut Block, my: &mut Block, mx: &mut Block) -> Result<(), SolverError> {
+    let p = y.width;
+    let dot = |a: &Block, i: usize, b: &Block, j: usize| -> f64 {
+        (0..a.dofs).map(|r| a.get(r, i) * b.get(r, j)).sum()
+    };
+    let axpy = |blk: &mut Block, c: f64, i: usize, j: usize| {
+        for r in 0..blk.dofs {
+            let v = blk.get(r, j) - c * blk.get(r, i);
+            blk.set(r, j, v);
+        }
+    };
+    let scale = |blk: &mut Block, s: f64, j: usize| {
+        for r in 0..blk.dofs {
+            let v = blk.get(r, j) * s;
+            blk.set(r, j, v);
+        }
+    };
+    for j in 0..p {
+        let original = dot(y, j, my, j).max(0.0).sqrt();
+        for _pass in 0..2 {
+            for i in 0..j {
+                let c = dot(y, i, my, j);
+                axpy(y, c, i, j);
+                axpy(my, c, i, j);
+                axpy(mx, c, i, j);
+            }
+        }
+        let norm = dot(y, j, my, j).max(0.0).sqrt();
+        if !(norm.is_finite() && norm > 1e-13 * original) {
+            return Err(SolverError::LostBasis);
+        }
+        scale(y, 1.0 / norm, j);
+        scale(my, 1.0 / norm, j);
+        scale(mx, 1.0 / norm, j);
+    }
+    Ok(())
 }
 
 /// Deterministic start vectors: a uniform translation, then smooth shapes of growing
@@ -174,6 +236,8 @@ pub fn lowest_modes_from(
         iterations += 1;
         band_times_block(&model.mass, &x, &mut mx);
         apply_inverse_stiffness_block(model, &mx, &mut y);
+        band_times_block(&model.mass, &y, &mut my);
+        m_orthonormalize(&mut y, &mut my, &mut mx)?;
         band_times_block(&model.mass, &y, &mut my);
         let kr = y.gram(&mx);
         let kr = 0.5 * (&kr + kr.transpose());

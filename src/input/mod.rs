@@ -139,6 +139,49 @@ pub fn load_case(path: &Path) -> Result<Case, InputError> {
 /// Parses and validates case-file text. `base_dir` is where a relative `stations_csv` is
 /// looked for; `file_label` names the file in messages.
 pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case, InputError> {
+    parse_case_from(text, file_label, |name| {
+        let csv_path = base_dir.join(name);
+        read_limited(&csv_path, name, "stations CSV").map_err(|e| match e {
+            ReadFailure::Io(source) => InputError::StationsCsv {
+                label: file_label.to_string(),
+                path: csv_path.clone(),
+                source,
+            },
+            ReadFailure::Other(e) => e,
+        })
+    })
+}
+
+/// Parses and validates case-file text without touching the file system: when the case
+/// names a `stations_csv`, `stations_csv_text` is used as that file's text (`None` gives
+/// the same error as a missing file). The whole path from text to [`Case`] that
+/// [`load_case`] takes, for tests and fuzzing.
+pub fn parse_case_with_csv(
+    text: &str,
+    file_label: &str,
+    stations_csv_text: Option<&str>,
+) -> Result<Case, InputError> {
+    parse_case_from(text, file_label, |name| match stations_csv_text {
+        Some(csv) if csv.len() as u64 > MAX_INPUT_BYTES => Err(InputError::TooLarge {
+            label: name.to_string(),
+            kind: "stations CSV",
+            size: MegaBytes(csv.len() as u64),
+        }),
+        Some(csv) => Ok(csv.to_string()),
+        None => Err(InputError::StationsCsv {
+            label: file_label.to_string(),
+            path: PathBuf::from(name),
+            source: std::io::Error::from(std::io::ErrorKind::NotFound),
+        }),
+    })
+}
+
+/// The common path: `read_csv` fetches the text of the stations CSV named in the case.
+fn parse_case_from(
+    text: &str,
+    file_label: &str,
+    read_csv: impl FnOnce(&str) -> Result<String, InputError>,
+) -> Result<Case, InputError> {
     let label = file_label.to_string();
     if text.len() as u64 > MAX_INPUT_BYTES {
         return Err(InputError::TooLarge {
@@ -173,15 +216,7 @@ pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case,
 
     let csv = match &raw.shell.stations_csv {
         Some(name) if raw.shell.stations.is_none() => {
-            let csv_path = base_dir.join(name);
-            let text = read_limited(&csv_path, name, "stations CSV").map_err(|e| match e {
-                ReadFailure::Io(source) => InputError::StationsCsv {
-                    label: label.clone(),
-                    path: csv_path.clone(),
-                    source,
-                },
-                ReadFailure::Other(e) => e,
-            })?;
+            let text = read_csv(name)?;
             match parse_stations_csv(&text, name) {
                 Ok(csv) => Some(csv),
                 Err(csv_issues) => {
@@ -262,6 +297,19 @@ mod tests {
         assert!(case.title.to_lowercase().contains("invented"));
         assert!(case.shell.stations.len() >= 5);
         assert_eq!(case.stages.len(), 3);
+    }
+
+    #[test]
+    fn csv_given_as_text_matches_the_csv_read_from_disk() {
+        let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples");
+        let from_disk = load_case(&dir.join("csv_stations.toml")).expect("example loads");
+        let text = std::fs::read_to_string(dir.join("csv_stations.toml")).expect("read");
+        let csv = std::fs::read_to_string(dir.join("stations.csv")).expect("read");
+        let from_text =
+            parse_case_with_csv(&text, "csv_stations.toml", Some(&csv)).expect("text loads");
+        assert_eq!(from_disk, from_text);
+        let err = parse_case_with_csv(&text, "csv_stations.toml", None).unwrap_err();
+        assert!(matches!(err, InputError::StationsCsv { .. }), "{err}");
     }
 
     #[test]

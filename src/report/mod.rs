@@ -21,12 +21,35 @@ pub enum ReportError {
         #[source]
         source: std::io::Error,
     },
+    /// The output folder (or a folder above it) cannot be created.
+    #[error("cannot create the output folder {path}: {reason}")]
+    CannotCreate { path: PathBuf, reason: String },
     /// The output path exists and is not a folder.
     #[error("output path {path} exists and is not a folder")]
     NotAFolder { path: PathBuf },
     /// A file in the output folder is read-only; nothing was replaced.
     #[error("cannot replace {path}: the file is read-only (no output file was changed)")]
     ReadOnly { path: PathBuf },
+    /// Something other than a plain file (a folder, a link, a device) is where an output
+    /// file must go; nothing was replaced.
+    #[error("cannot replace {path}: it is not a plain file (no output file was changed)")]
+    Blocked { path: PathBuf },
+    /// Moving a finished file into the output folder failed; the files already moved were
+    /// taken back out and the originals restored.
+    #[error("cannot write {path}: {source} (no output file was changed)")]
+    Unchanged {
+        path: PathBuf,
+        #[source]
+        source: std::io::Error,
+    },
+    /// A commit failed and the files already replaced could not all be restored; the
+    /// originals not put back are in `backup` (files ending in `.previous`).
+    #[error("cannot write {path}: {message}; the original files not restored are in {backup}")]
+    RollbackFailed {
+        path: PathBuf,
+        backup: PathBuf,
+        message: String,
+    },
     /// CSV serialisation failed.
     #[error("cannot format {file}: {message}")]
     Format { file: String, message: String },
