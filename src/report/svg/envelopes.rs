@@ -144,6 +144,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         columns,
         panels,
         row_height_px: 440,
+        source: input.case.title.clone(),
         legend,
         footnotes,
     };

@@ -50,6 +50,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         columns: stage_columns(panels.len()),
         panels,
         row_height_px: 560,
+        source: input.case.title.clone(),
         legend,
         footnotes: Vec::new(),
     };

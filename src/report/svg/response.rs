@@ -130,6 +130,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         columns: stage_columns(panels.len()),
         panels,
         row_height_px: 480,
+        source: input.case.title.clone(),
         legend,
         footnotes,
     };

@@ -121,6 +121,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         panels: vec![pd, pt],
         columns: 2,
         row_height_px: 620,
+        source: input.case.title.clone(),
         legend,
         footnotes: Vec::new(),
     };

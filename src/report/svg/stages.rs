@@ -103,6 +103,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         panels,
         columns: 3,
         row_height_px: 440,
+        source: input.case.title.clone(),
         legend,
         footnotes: vec![
             "Bars are numbered by stage; \"-\" = no amplitude (screened out by EN 1991-1-4 E.1.2)."

@@ -179,6 +179,8 @@ pub struct Figure {
     pub row_height_px: u32,
     pub legend: Vec<LegendEntry>,
     pub footnotes: Vec<String>,
+    /// The case title, printed small under the figure so a lone SVG says what it shows.
+    pub source: String,
 }
 
 fn plot_err<E: std::fmt::Debug>(file: &str) -> impl Fn(E) -> ReportError + '_ {
@@ -357,7 +359,7 @@ fn draw_panel<DB: DrawingBackend>(
     let mut chart = ChartBuilder::on(area)
         .caption(&panel.title, text_style(PANEL_TITLE_PX))
         .margin_top(6)
-        .margin_right(18)
+        .margin_right(30)
         .margin_left(4)
         .x_label_area_size(58)
         .y_label_area_size(78)
@@ -437,11 +439,6 @@ fn draw_panel<DB: DrawingBackend>(
         }
         let y = to_px(x0, g.at).1;
         draw_pixel_line(&plot_px, &[(0, y), (pw as i32, y)], &g.pen, 1)?;
-        let w = text_width_px(&g.label, NOTE_PX);
-        plot_px.draw(&Rectangle::new(
-            [(pw as i32 - w - 6, py - 8), (pw as i32 - 1, py + 8)],
-            WHITE.mix(0.85).filled(),
-        ))?;
         plot_px.draw(&Text::new(
             g.label.clone(),
             (pw as i32 - 4, py),
@@ -543,7 +540,11 @@ pub fn render(fig: &Figure, file: &str) -> Result<String, ReportError> {
     let columns = fig.columns.max(1);
     let n_rows = fig.panels.len().div_ceil(columns).max(1);
     let rows = legend_rows(&fig.legend, WIDTH_PX as i32 - 80);
-    let legend_h = (rows.len() + fig.footnotes.len()) as u32 * LEGEND_ROW_PX + 10;
+    let mut footnotes = fig.footnotes.clone();
+    if !fig.source.is_empty() {
+        footnotes.push(format!("Case: {}", fig.source));
+    }
+    let legend_h = (rows.len() + footnotes.len()) as u32 * LEGEND_ROW_PX + 10;
     let title_h = 40;
     let height = title_h + n_rows as u32 * fig.row_height_px + legend_h;
     let mut svg = String::new();
@@ -567,7 +568,7 @@ pub fn render(fig: &Figure, file: &str) -> Result<String, ReportError> {
             }
             draw_panel(cell, panel).map_err(&err)?;
         }
-        draw_legend(&legend, &fig.legend, &rows, &fig.footnotes).map_err(&err)?;
+        draw_legend(&legend, &fig.legend, &rows, &footnotes).map_err(&err)?;
         root.present().map_err(&err)?;
     }
     Ok(svg)

@@ -49,6 +49,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
             pen: style::reference_pen(),
         });
         n_modes = n_modes.max(sv.modes.len());
+        let mut off_scale = Vec::new();
         any_band.resize(n_modes, false);
         for (k, m) in sv.modes.iter().enumerate() {
             let mode = s.modes.iter().find(|x| x.number == m.mode);
@@ -67,10 +68,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
                 .collect();
             let v_min = pts.iter().map(|p| p.0).fold(f64::INFINITY, f64::min);
             if v_min > x_range.1 {
-                footnotes.push(format!(
-                    "{}: mode {} off the scale (b(z) n / St from {:.0} m/s)",
-                    s.stage.name, m.mode, v_min
-                ));
+                off_scale.push(format!("mode {} from {:.0} m/s", m.mode, v_min));
             }
             for seg in &m.lock_in_segments {
                 any_band[k] = true;
@@ -89,6 +87,13 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
                 points: pts,
                 pen: style::pen(k),
             });
+        }
+        if !off_scale.is_empty() {
+            footnotes.push(format!(
+                "{}: off the scale: {}",
+                s.stage.name,
+                off_scale.join(", ")
+            ));
         }
         panels.push(panel);
     }
@@ -115,6 +120,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         columns: stage_columns(panels.len()),
         panels,
         row_height_px: 560,
+        source: input.case.title.clone(),
         legend,
         footnotes,
     };
