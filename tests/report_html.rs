@@ -67,6 +67,7 @@ fn tables_after(doc: &roxmltree::Document, prefix: &str) -> Vec<(String, Vec<Str
         }
         let table = h
             .next_siblings()
+            .skip(1) // the iterator starts with the heading itself
             .find(|n| n.is_element())
             .filter(|n| n.has_tag_name("table"))
             .expect("a table follows the stage heading");

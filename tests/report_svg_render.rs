@@ -59,6 +59,6 @@ fn every_plot_parses_and_renders_non_blank() {
 #[test]
 fn a_blank_svg_is_detected() {
     // Guards the test above against passing on anything.
-    let blank = r#"<svg xmlns="http://www.w3.org/2000/svg" width="100" height="50" viewBox="0 0 100 50"><rect width="100" height="50" fill="#FFFFFF"/></svg>"#;
+    let blank = r##"<svg xmlns="http://www.w3.org/2000/svg" width="100" height="50" viewBox="0 0 100 50"><rect width="100" height="50" fill="#FFFFFF"/></svg>"##;
     assert_eq!(dark_pixels(blank).0, 0);
 }
