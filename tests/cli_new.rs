@@ -33,7 +33,12 @@ fn new_writes_refuses_and_forces() {
     let out = dir.path().join("out");
     let assert = Command::cargo_bin("stackwake")
         .unwrap()
-        .args(["check", file.to_str().unwrap(), "--out", out.to_str().unwrap()])
+        .args([
+            "check",
+            file.to_str().unwrap(),
+            "--out",
+            out.to_str().unwrap(),
+        ])
         .assert();
     let code = assert.get_output().status.code();
     assert!(matches!(code, Some(0) | Some(1)), "check ran: {code:?}");

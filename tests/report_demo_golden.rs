@@ -89,9 +89,9 @@ fn summary_json_carries_the_table_numbers() {
     let out = dir.path().join("out");
     run(None, &out, CheckOptions::default()).unwrap();
     let v: serde_json::Value =
-        serde_json::from_str(&std::fs::read_to_string(out.join("summary.json")).unwrap())
-            .unwrap();
-    let (_, golden) = read(&Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/golden/demo/vortex.csv"));
+        serde_json::from_str(&std::fs::read_to_string(out.join("summary.json")).unwrap()).unwrap();
+    let (_, golden) =
+        read(&Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/golden/demo/vortex.csv"));
     let modes: Vec<&serde_json::Value> = v["vortex"]["stages"]
         .as_array()
         .unwrap()

@@ -41,7 +41,10 @@ fn user_text_is_escaped_everywhere() {
     for svg in ["modes.svg", "wind_map.svg", "shell.svg", "stages.svg"] {
         let text = std::fs::read_to_string(out.join(svg)).unwrap();
         assert!(!text.contains("<script") && !text.contains("<b>"), "{svg}");
-        assert!(text.contains("&lt;script&gt;alert(1)&lt;/script&gt;"), "{svg}: title");
+        assert!(
+            text.contains("&lt;script&gt;alert(1)&lt;/script&gt;"),
+            "{svg}: title"
+        );
         roxmltree::Document::parse(&text).unwrap_or_else(|e| panic!("{svg}: {e}"));
     }
     let stages_svg = std::fs::read_to_string(out.join("stages.svg")).unwrap();

@@ -26,11 +26,18 @@ fn html_is_well_formed_and_self_contained() {
     for node in doc.descendants().filter(|n| n.is_element()) {
         let tag = node.tag_name().name();
         assert!(
-            !matches!(tag, "script" | "link" | "img" | "iframe" | "object" | "embed"),
+            !matches!(
+                tag,
+                "script" | "link" | "img" | "iframe" | "object" | "embed"
+            ),
             "external or active element <{tag}>"
         );
         for a in node.attributes() {
-            assert!(a.name() != "src" && a.name() != "href", "attribute {}", a.name());
+            assert!(
+                a.name() != "src" && a.name() != "href",
+                "attribute {}",
+                a.name()
+            );
         }
     }
     // The only URLs are XML namespace names.

@@ -15,8 +15,8 @@ const PLOTS: [&str; 6] = [
 ];
 
 fn dark_pixels(svg: &str) -> (usize, usize) {
-    let tree = resvg::usvg::Tree::from_str(svg, &resvg::usvg::Options::default())
-        .expect("the SVG parses");
+    let tree =
+        resvg::usvg::Tree::from_str(svg, &resvg::usvg::Options::default()).expect("the SVG parses");
     let size = tree.size().to_int_size();
     let scale = 400.0 / size.width() as f32;
     let w = (size.width() as f32 * scale).ceil() as u32;
@@ -53,7 +53,10 @@ fn every_plot_parses_and_renders_non_blank() {
     let wind = std::fs::read_to_string(out.join("wind_map.svg")).unwrap();
     assert!(wind.contains("wind speed (m/s)"));
     assert!(wind.contains("mode 1: b(z) n / St"));
-    assert!(wind.contains("lock-in"), "the demo locks in: bands are labelled");
+    assert!(
+        wind.contains("lock-in"),
+        "the demo locks in: bands are labelled"
+    );
 }
 
 #[test]

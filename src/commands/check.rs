@@ -10,8 +10,8 @@ use crate::error::Error;
 use crate::modal::{analyse_case, ModalOptions, StageModes};
 use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::staging::Staging;
-use crate::report::{html, json, svg, ReportInput};
 use crate::report::table;
+use crate::report::{html, json, svg, ReportInput};
 use crate::wind::{self, VortexResults};
 
 use super::modes::{modes_table, stage_modal_files};

@@ -133,9 +133,9 @@ fn figure(out: &mut String, plot: &Plot, number: usize) {
         Some(i) => &svg[i..],
         None => svg,
     };
-    let _ = write!(
+    let _ = writeln!(
         out,
-        "<figure id=\"{}\">{svg}<figcaption>Figure {number}: {}</figcaption></figure>\n",
+        "<figure id=\"{}\">{svg}<figcaption>Figure {number}: {}</figcaption></figure>",
         html_escape(plot.file.trim_end_matches(".svg")),
         html_escape(&plot.caption)
     );
@@ -254,7 +254,12 @@ fn inputs(out: &mut String, input: &ReportInput) {
     let _ = writeln!(out, "<p>Foundation: {}.</p>", html_escape(&base));
     out.push_str("<h3>2.3 Construction stages</h3>\n");
     Table {
-        head: &["stage", "lining installed", "stiffness factor", "shell top (m)"],
+        head: &[
+            "stage",
+            "lining installed",
+            "stiffness factor",
+            "shell top (m)",
+        ],
         rows: c
             .stages
             .iter()
@@ -284,9 +289,15 @@ fn inputs(out: &mut String, input: &ReportInput) {
             t("mean wind speed at reference height (m/s)"),
             n(num(c.wind.reference_speed_m_s, 2)),
         ],
-        vec![t("reference height (m)"), n(num(c.wind.reference_height_m, 1))],
+        vec![
+            t("reference height (m)"),
+            n(num(c.wind.reference_height_m, 1)),
+        ],
         vec![t("profile"), t(profile)],
-        vec![t("air density (kg/m3)"), n(num(c.wind.air_density_kg_m3, 3))],
+        vec![
+            t("air density (kg/m3)"),
+            n(num(c.wind.air_density_kg_m3, 3)),
+        ],
         vec![
             t("kinematic viscosity (m2/s)"),
             n(sci(c.wind.kinematic_viscosity_m2_s)),
@@ -311,10 +322,7 @@ fn inputs(out: &mut String, input: &ReportInput) {
     if let Some(g) = &c.vortex.group {
         rows.push(vec![
             t("group of stacks"),
-            t(format!(
-                "{} in line, spacing {:.1} m",
-                g.count, g.spacing_m
-            )),
+            t(format!("{} in line, spacing {:.1} m", g.count, g.spacing_m)),
         ]);
     }
     let cr = &c.criteria;
@@ -324,7 +332,8 @@ fn inputs(out: &mut String, input: &ReportInput) {
     ]);
     rows.push(vec![
         t("criterion: tip amplitude / top diameter (-)"),
-        t(cr.tip_amplitude_per_diameter.map_or("-".into(), |v| num(v, 3))),
+        t(cr.tip_amplitude_per_diameter
+            .map_or("-".into(), |v| num(v, 3))),
     ]);
     rows.push(vec![
         t("criterion: extreme-fibre stress (MPa)"),
@@ -428,13 +437,30 @@ fn band(m: &ModeVortex) -> String {
     }
 }
 
+/// The verdict in one word (the reasons of an exceedance are listed under the table).
 fn verdict_cell(m: &ModeVortex) -> Cell {
-    let text = m.verdict.to_string();
     if m.verdict.is_exceeds() {
-        Cell::Bad(text)
+        Cell::Bad("exceeds".into())
     } else {
-        t(text)
+        t(m.verdict.to_string())
     }
+}
+
+fn exceedances(out: &mut String, modes: &[ModeVortex]) {
+    let bad: Vec<&ModeVortex> = modes.iter().filter(|m| m.verdict.is_exceeds()).collect();
+    if bad.is_empty() {
+        return;
+    }
+    out.push_str("<ul class=\"small\">\n");
+    for m in bad {
+        let _ = writeln!(
+            out,
+            "<li><b>Mode {}</b>: {}</li>",
+            m.mode,
+            html_escape(&m.verdict.to_string())
+        );
+    }
+    out.push_str("</ul>\n");
 }
 
 fn verdict_section(out: &mut String, input: &ReportInput) {
@@ -457,7 +483,7 @@ fn verdict_section(out: &mut String, input: &ReportInput) {
                 "speed_ratio",
                 "reynolds",
                 "scruton",
-                "lock-in band (m)",
+                "lock_in_band_m",
                 "verdict",
             ],
             rows: s
@@ -482,6 +508,7 @@ fn verdict_section(out: &mut String, input: &ReportInput) {
                 .collect(),
         }
         .write(out);
+        exceedances(out, &s.modes);
         let mut rows = Vec::new();
         for m in &s.modes {
             for c in &m.comparison {
@@ -496,11 +523,7 @@ fn verdict_section(out: &mut String, input: &ReportInput) {
                             ""
                         }
                     )),
-                    t(if c.applies {
-                        "yes"
-                    } else {
-                        "no (screened out or outside its conditions)"
-                    }),
+                    t(if c.applies { "yes" } else { "no" }),
                     n(opt(c.tip_amplitude_m, 4)),
                     n(opt(c.base_moment_nm.map(|v| v / 1e6), 1)),
                     n(opt(c.max_stress_pa.map(|v| v / 1e6), 2)),
@@ -508,6 +531,10 @@ fn verdict_section(out: &mut String, input: &ReportInput) {
                 ]);
             }
         }
+        out.push_str(
+            "<p class=\"small\">Methods side by side (\"no\": screened out, or outside the \
+             method's conditions).</p>\n",
+        );
         Table {
             head: &[
                 "mode",

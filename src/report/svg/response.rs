@@ -107,10 +107,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         let x_range = style::padded(x_lo.min(v_design), x_hi, 0.03);
         panels.push(Panel {
             title: s.stage.name.clone(),
-            x_desc: format!(
-                "mean wind speed at {:.0} m (m/s)",
-                wind.reference_height_m
-            ),
+            x_desc: format!("mean wind speed at {:.0} m (m/s)", wind.reference_height_m),
             y_desc: "tip amplitude (m)".into(),
             x_range: (x_range.0.max(0.0), x_range.1),
             y_range: (0.0, if y_hi > 0.0 { y_hi * 1.15 } else { 1.0 }),

@@ -84,9 +84,12 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
             "critical speed (m/s)",
             |m| Some(m.critical_speed_m_s),
         ),
-        panel(input, "tip amplitude (governing)", "tip amplitude (m)", |m| {
-            m.governing_summary().tip_amplitude_m
-        }),
+        panel(
+            input,
+            "tip amplitude (governing)",
+            "tip amplitude (m)",
+            |m| m.governing_summary().tip_amplitude_m,
+        ),
     ];
     let legend = input
         .vortex

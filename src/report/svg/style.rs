@@ -310,9 +310,10 @@ fn draw_marker<DB: DrawingBackend>(
         Marker::None => {}
         Marker::Circle => area.draw(&Circle::new((x, y), 5, fill))?,
         Marker::Square => area.draw(&Rectangle::new([(x - 4, y - 4), (x + 4, y + 4)], fill))?,
-        Marker::Triangle => {
-            area.draw(&Polygon::new(vec![(x, y - 6), (x - 5, y + 4), (x + 5, y + 4)], fill))?
-        }
+        Marker::Triangle => area.draw(&Polygon::new(
+            vec![(x, y - 6), (x - 5, y + 4), (x + 5, y + 4)],
+            fill,
+        ))?,
     }
     Ok(())
 }
