@@ -602,7 +602,7 @@ mod tests {
         let pieces = clip_x(&pts, (0.0, 20.0));
         assert_eq!(pieces.len(), 2);
         assert_eq!(pieces[0].last().copied(), Some((20.0, 1.5)));
-        assert_eq!(pieces[1][0], (20.0, 2.6));
+        assert_eq!(pieces[1][0], (20.0, 2.4)); // (30, 2) -> (5, 3) crosses x = 20 at t = 0.4
     }
 
     #[test]
