@@ -31,6 +31,15 @@ enum Command {
         #[arg(long)]
         elements: Option<usize>,
     },
+    /// Write a fully commented starter case file (invented placeholder values).
+    New {
+        /// File to write.
+        #[arg(default_value = "case.toml")]
+        file: PathBuf,
+        /// Replace the file if it exists.
+        #[arg(long)]
+        force: bool,
+    },
     /// Natural frequencies and mode shapes of every construction stage.
     Modes {
         /// Case file (TOML); the built-in invented demo when omitted.
@@ -99,6 +108,7 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
                 },
             )?)
         }
+        Command::New { file, force } => Ok(commands::new::run(&file, force)?),
         Command::Modes {
             case,
             out,

@@ -11,6 +11,7 @@ use crate::modal::{analyse_case, ModalOptions, StageModes};
 use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::staging::Staging;
 use crate::report::table;
+use crate::report::{html, json, svg, ReportInput};
 use crate::wind::{self, VortexResults};
 
 use super::modes::{modes_table, stage_modal_files};
@@ -187,6 +188,61 @@ pub fn warnings(results: &CheckResults) -> Vec<String> {
     out
 }
 
+/// The date printed in the design note: `STACKWAKE_DATE` if set (reproducible output for
+/// tests and archives), else today's UTC date.
+pub fn note_date() -> String {
+    match std::env::var("STACKWAKE_DATE") {
+        Ok(d) if !d.trim().is_empty() => d.trim().to_string(),
+        _ => today_utc(),
+    }
+}
+
+/// Today's UTC date as YYYY-MM-DD (civil-from-days, proleptic Gregorian calendar).
+fn today_utc() -> String {
+    let secs = std::time::SystemTime::now()
+        .duration_since(std::time::UNIX_EPOCH)
+        .map_or(0, |d| d.as_secs());
+    let (y, m, d) = civil_from_days((secs / 86_400) as i64);
+    format!("{y:04}-{m:02}-{d:02}")
+}
+
+/// Year, month, day of a day count since 1970-01-01 (H. Hinnant's `civil_from_days`
+/// algorithm, public domain).
+fn civil_from_days(days: i64) -> (i64, u32, u32) {
+    let z = days + 719_468;
+    let era = z.div_euclid(146_097);
+    let doe = z.rem_euclid(146_097);
+    let yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
+    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
+    let mp = (5 * doy + 2) / 153;
+    let d = (doy - (153 * mp + 2) / 5 + 1) as u32;
+    let m = if mp < 10 { mp + 3 } else { mp - 9 } as u32;
+    (yoe + era * 400 + i64::from(m <= 2), m, d)
+}
+
+/// Writes the plots (SVG), the design note (report.html) and summary.json into the
+/// staging folder, so they are committed together with the CSVs or not at all.
+pub fn stage_note_files(
+    staging: &mut Staging,
+    results: &CheckResults,
+    warnings: &[String],
+    date: &str,
+) -> Result<(), Error> {
+    let input = ReportInput {
+        case: &results.case,
+        stages: &results.stages,
+        vortex: &results.vortex,
+        warnings,
+    };
+    let plots = svg::all_plots(&input)?;
+    for p in &plots {
+        staging.write(p.file, p.svg.as_bytes())?;
+    }
+    staging.write("report.html", html::render(&input, &plots, date).as_bytes())?;
+    staging.write("summary.json", &json::to_json(&input)?)?;
+    Ok(())
+}
+
 /// Runs `check` on a case file (or the demo) and writes every output to `out`.
 pub fn run(
     case_path: Option<&Path>,
@@ -198,6 +254,8 @@ pub fn run(
     let results = analyse(case, options)?;
     stage_modal_files(&mut staging, &results.stages)?;
     stage_vortex_files(&mut staging, &results.vortex)?;
+    let warnings = warnings(&results);
+    stage_note_files(&mut staging, &results, &warnings, &note_date())?;
     let files = staging.commit()?;
     let mut stdout = format!("{}\n\n", results.case.title);
     stdout.push_str(&modes_table(&results.stages));
@@ -214,8 +272,22 @@ pub fn run(
     );
     Ok(CommandReport {
         stdout,
-        warnings: warnings(&results),
+        warnings,
         check_failed: results.vortex.any_exceeds(),
         files,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn civil_dates() {
+        // Day counts checked with Python's datetime.date.fromordinal (general-purpose library).
+        assert_eq!(civil_from_days(0), (1970, 1, 1));
+        assert_eq!(civil_from_days(11_016), (2000, 2, 29));
+        assert_eq!(civil_from_days(19_782), (2024, 2, 29));
+        assert_eq!(civil_from_days(-1), (1969, 12, 31));
+    }
 }

@@ -4,6 +4,7 @@
 
 pub mod check;
 pub mod modes;
+pub mod new;
 pub mod scale;
 
 use std::path::{Path, PathBuf};

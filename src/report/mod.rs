@@ -3,13 +3,39 @@
 //! module besides `input` that touches files; it only reads result types.
 
 pub mod csv;
+pub mod html;
+pub mod json;
 pub mod scale_plot;
 pub mod staging;
+pub mod svg;
 pub mod table;
 
 use std::path::PathBuf;
 
 use thiserror::Error;
+
+use crate::case::Case;
+use crate::modal::StageModes;
+use crate::wind::VortexResults;
+
+/// What the report writers read: the validated case, the modes of every stage, the vortex
+/// results and the run's warnings.
+#[derive(Debug, Clone, Copy)]
+pub struct ReportInput<'a> {
+    pub case: &'a Case,
+    pub stages: &'a [StageModes],
+    pub vortex: &'a VortexResults,
+    pub warnings: &'a [String],
+}
+
+/// The cautions printed in the design note and carried in summary.json.
+pub const CAUTIONS: &[&str] = &[
+    "stackwake is a screening tool. Its results must be checked by a licensed engineer against \
+     the local code and the governing standard's National Annex before they are used in design.",
+    "Several clause numbers and constants of the methods were implemented from memory and are \
+     flagged as such in the method section; verify them against the standard in force.",
+    "No warranty of any kind is given for the results or their fitness for any purpose.",
+];
 
 /// Why output could not be written.
 #[derive(Debug, Error)]
