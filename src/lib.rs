@@ -19,6 +19,8 @@ pub mod error;
 pub mod fem;
 pub mod input;
 pub mod modal;
+pub mod remedy;
 pub mod report;
 pub mod section;
+pub mod sweep;
 pub mod wind;

@@ -4,6 +4,7 @@
 
 pub mod check;
 pub mod modes;
+pub mod sweep;
 
 use std::path::{Path, PathBuf};
 

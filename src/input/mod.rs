@@ -8,6 +8,7 @@
 
 pub mod decode;
 pub mod issue;
+pub mod keypath;
 pub mod raw;
 pub mod stations_csv;
 pub mod validate;
@@ -134,9 +135,8 @@ pub fn load_case(path: &Path) -> Result<Case, InputError> {
     parse_case(&text, base_dir, &label)
 }
 
-/// Parses and validates case-file text. `base_dir` is where a relative `stations_csv` is
-/// looked for; `file_label` names the file in messages.
-pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case, InputError> {
+/// Parses case-file text into a TOML table (size, emptiness and syntax checks only).
+pub fn parse_case_text(text: &str, file_label: &str) -> Result<toml::Table, InputError> {
     let label = file_label.to_string();
     if text.len() as u64 > MAX_INPUT_BYTES {
         return Err(InputError::TooLarge {
@@ -149,7 +149,7 @@ pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case,
     if text.trim().is_empty() {
         return Err(InputError::Empty { label });
     }
-    let table: toml::Table = toml::from_str(text).map_err(|e| {
+    toml::from_str(text).map_err(|e| {
         let (line, column) = e
             .span()
             .map(|s| line_column(text, s.start))
@@ -160,7 +160,37 @@ pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case,
             column,
             message: e.message().trim().replace('\n', "; "),
         }
+    })
+}
+
+/// Reads a case file as a TOML table (for sweeps); see [`parse_case_text`].
+pub fn read_case_table(path: &Path) -> Result<toml::Table, InputError> {
+    let label = path.display().to_string();
+    let text = read_limited(path, &label, "case file").map_err(|e| match e {
+        ReadFailure::Io(source) => InputError::Read {
+            path: path.to_path_buf(),
+            source,
+        },
+        ReadFailure::Other(e) => e,
     })?;
+    parse_case_text(&text, &label)
+}
+
+/// Parses and validates case-file text. `base_dir` is where a relative `stations_csv` is
+/// looked for; `file_label` names the file in messages.
+pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case, InputError> {
+    let table = parse_case_text(text, file_label)?;
+    parse_case_table(table, base_dir, file_label)
+}
+
+/// Validates an already parsed case-file table (used by sweeps, which edit one parsed table
+/// per variant instead of re-parsing text). Same rules and messages as [`parse_case`].
+pub fn parse_case_table(
+    table: toml::Table,
+    base_dir: &Path,
+    file_label: &str,
+) -> Result<Case, InputError> {
+    let label = file_label.to_string();
     if table.is_empty() {
         return Err(InputError::Empty { label });
     }

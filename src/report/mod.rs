@@ -4,6 +4,7 @@
 
 pub mod csv;
 pub mod staging;
+pub mod sweep;
 pub mod table;
 
 use std::path::PathBuf;
