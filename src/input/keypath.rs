@@ -101,18 +101,19 @@ pub fn get_number(table: &Table, path: &str) -> Result<f64, KeyPathError> {
 pub fn set_number(table: &mut Table, path: &str, value: f64) -> Result<(), KeyPathError> {
     let steps = parse(path)?;
     let slot = walk(table, path, &steps)?;
-    match slot {
+    let new = match &*slot {
         Value::Integer(_) if value.fract() == 0.0 && value.abs() < 9.0e15 => {
-            *slot = Value::Integer(value as i64)
+            Value::Integer(value as i64)
         }
-        Value::Integer(_) | Value::Float(_) => *slot = Value::Float(value),
+        Value::Integer(_) | Value::Float(_) => Value::Float(value),
         other => {
             return Err(KeyPathError::NotNumber {
                 path: path.to_string(),
                 found: describe(other),
             })
         }
-    }
+    };
+    *slot = new;
     Ok(())
 }
 
