@@ -34,7 +34,9 @@ fn bad_key_exits_2_naming_it() {
         .arg(&out)
         .assert()
         .code(2)
-        .stderr(predicate::str::contains("vortex.method").and(predicate::str::contains("not a number")));
+        .stderr(
+            predicate::str::contains("vortex.method").and(predicate::str::contains("not a number")),
+        );
     Command::cargo_bin("stackwake")
         .unwrap()
         .arg("sweep")
@@ -77,10 +79,17 @@ fn two_key_grid_writes_csv_and_map() {
     assert_eq!(rows.len(), 2 * 9 + 2, "{csv}");
     let invalid: Vec<&&str> = rows.iter().filter(|r| r.contains("invalid: ")).collect();
     assert_eq!(invalid.len(), 2);
-    assert!(invalid[0].contains("shell.stations[0].wall_m"), "{}", invalid[0]);
+    assert!(
+        invalid[0].contains("shell.stations[0].wall_m"),
+        "{}",
+        invalid[0]
+    );
     let svg = std::fs::read_to_string(out.join("sweep_map.svg")).unwrap();
     assert!(svg.starts_with("<svg"));
     assert!(svg.contains("shell.stations[0].wall_m"));
-    assert!(svg.contains("url(#cross)"), "invalid cells are cross-hatched");
+    assert!(
+        svg.contains("url(#cross)"),
+        "invalid cells are cross-hatched"
+    );
     assert!(svg.trim_end().ends_with("</svg>"));
 }

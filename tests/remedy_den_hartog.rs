@@ -12,7 +12,12 @@ use stackwake::input::{parse_case, DEMO_CASE_TOML};
 use stackwake::remedy::tmd;
 
 fn demo_with(extra: &str) -> stackwake::case::Case {
-    parse_case(&format!("{DEMO_CASE_TOML}\n{extra}\n"), Path::new("."), "demo+").expect("valid")
+    parse_case(
+        &format!("{DEMO_CASE_TOML}\n{extra}\n"),
+        Path::new("."),
+        "demo+",
+    )
+    .expect("valid")
 }
 
 #[test]
@@ -94,7 +99,12 @@ fn required_damping_just_meets_the_criteria() {
             .unwrap()
             .modes[0]
             .clone();
-        assert_eq!(m.verdict.is_exceeds(), should_fail, "factor {factor}: {}", m.verdict);
+        assert_eq!(
+            m.verdict.is_exceeds(),
+            should_fail,
+            "factor {factor}: {}",
+            m.verdict
+        );
     }
     // Approach 2 is reported too.
     assert!(req.approach2.already_meets || req.approach2.log_decrement.is_some());
@@ -102,9 +112,7 @@ fn required_damping_just_meets_the_criteria() {
 
 #[test]
 fn strakes_reduce_the_response_and_report_drag() {
-    let case = demo_with(
-        "[remedy.strakes]\nfrom_z_m = 140.0\nto_z_m = 210.0\nc_lat_factor = 0.3",
-    );
+    let case = demo_with("[remedy.strakes]\nfrom_z_m = 140.0\nto_z_m = 210.0\nc_lat_factor = 0.3");
     let r = analyse(case, CheckOptions::default()).expect("analysis");
     let s = r
         .remedies
@@ -114,7 +122,14 @@ fn strakes_reduce_the_response_and_report_drag() {
         .expect("strakes on lined mode 1");
     assert!(s.en_condition_met);
     assert_eq!(s.drag_coefficient, 1.4);
-    assert!(s.coverage > 0.99, "L_j lies in the straked top: {}", s.coverage);
-    let (b, a) = (s.before.tip_amplitude_m.unwrap(), s.after.tip_amplitude_m.unwrap());
+    assert!(
+        s.coverage > 0.99,
+        "L_j lies in the straked top: {}",
+        s.coverage
+    );
+    let (b, a) = (
+        s.before.tip_amplitude_m.unwrap(),
+        s.after.tip_amplitude_m.unwrap(),
+    );
     assert!(a < 0.5 * b, "{a} vs {b}");
 }

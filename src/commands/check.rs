@@ -8,9 +8,9 @@ use serde::Serialize;
 use crate::case::Case;
 use crate::error::Error;
 use crate::modal::{analyse_case, ModalOptions, StageModes};
+use crate::remedy::{self, RemedyResults};
 use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::staging::Staging;
-use crate::remedy::{self, RemedyResults};
 use crate::report::table;
 use crate::wind::{self, VortexResults};
 
@@ -288,7 +288,10 @@ pub fn run(
         );
         stdout.push_str(&remedy_table(&results.remedies));
         for r in results.remedies.rows() {
-            stdout.push_str(&format!("  {} mode {} {}: {}\n", r.stage, r.mode, r.remedy, r.note));
+            stdout.push_str(&format!(
+                "  {} mode {} {}: {}\n",
+                r.stage, r.mode, r.remedy, r.note
+            ));
         }
     }
     stdout.push_str(

@@ -31,7 +31,11 @@ pub fn check_keys(table: &toml::Table, vary: &[Vary]) -> Result<(), Error> {
     if keys.windows(2).any(|w| w[0] == w[1]) {
         return Err(Error::Usage {
             option: "--vary".into(),
-            value: vary.iter().map(|v| v.key.as_str()).collect::<Vec<_>>().join(" "),
+            value: vary
+                .iter()
+                .map(|v| v.key.as_str())
+                .collect::<Vec<_>>()
+                .join(" "),
             rule: "each key may be varied only once".into(),
         });
     }
@@ -144,9 +148,9 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
     let n = sweep::grid_size(&vary).unwrap_or(0) as u64;
     let bar = if std::io::IsTerminal::is_terminal(&std::io::stderr()) {
         let b = ProgressBar::new(n);
-        if let Ok(style) =
-            ProgressStyle::with_template("{bar:40} {pos}/{len} variants, {elapsed} elapsed, ~{eta} left")
-        {
+        if let Ok(style) = ProgressStyle::with_template(
+            "{bar:40} {pos}/{len} variants, {elapsed} elapsed, ~{eta} left",
+        ) {
             b.set_style(style);
         }
         b

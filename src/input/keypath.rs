@@ -117,7 +117,11 @@ pub fn set_number(table: &mut Table, path: &str, value: f64) -> Result<(), KeyPa
     Ok(())
 }
 
-fn walk<'a>(table: &'a mut Table, path: &str, steps: &[Step]) -> Result<&'a mut Value, KeyPathError> {
+fn walk<'a>(
+    table: &'a mut Table,
+    path: &str,
+    steps: &[Step],
+) -> Result<&'a mut Value, KeyPathError> {
     let missing = |reason: String| KeyPathError::Missing {
         path: path.to_string(),
         reason,
@@ -146,9 +150,12 @@ fn walk<'a>(table: &'a mut Table, path: &str, steps: &[Step]) -> Result<&'a mut 
                     return Err(missing(format!("`{here}` is not an array")));
                 };
                 let len = a.len();
-                let next = a
-                    .get_mut(*i)
-                    .ok_or_else(|| missing(format!("`{here}` has {len} entries, 0 to {}", len.saturating_sub(1))))?;
+                let next = a.get_mut(*i).ok_or_else(|| {
+                    missing(format!(
+                        "`{here}` has {len} entries, 0 to {}",
+                        len.saturating_sub(1)
+                    ))
+                })?;
                 here = format!("{here}[{i}]");
                 next
             }
@@ -179,7 +186,10 @@ method = "en1991-e1"
         set_number(&mut t, "shell.stations[1].wall_m", 0.25).unwrap();
         assert_eq!(get_number(&t, "shell.stations[1].wall_m").unwrap(), 0.25);
         set_number(&mut t, "lining[0].mass_per_area_kg_m2", 300.0).unwrap();
-        assert_eq!(get_number(&t, "lining[0].mass_per_area_kg_m2").unwrap(), 300.0);
+        assert_eq!(
+            get_number(&t, "lining[0].mass_per_area_kg_m2").unwrap(),
+            300.0
+        );
         set_number(&mut t, "vortex.modes", 2.0).unwrap();
         assert_eq!(t["vortex"]["modes"], Value::Integer(2));
     }

@@ -196,7 +196,8 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
 
             if let Some(t) = spec.and_then(|s| s.tmd.as_ref()) {
                 if t.mode == mv.mode && stage_selected(&t.stage, &sv.stage) {
-                    out.tmd.push(tmd_result(&ctx, t.mass, before.clone(), &mut out.warnings));
+                    out.tmd
+                        .push(tmd_result(&ctx, t.mass, before.clone(), &mut out.warnings));
                 }
             }
             if let Some(s) = spec.and_then(|s| s.strakes.as_ref()) {
@@ -210,10 +211,17 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
                         continue;
                     }
                     let z_a = mv.reference_height_m;
-                    let factor =
-                        |l: f64| strakes::effective_factor(strakes::coverage(&ctx.shape, z_a, l, from, to), s.c_lat_factor);
+                    let factor = |l: f64| {
+                        strakes::effective_factor(
+                            strakes::coverage(&ctx.shape, z_a, l, from, to),
+                            s.c_lat_factor,
+                        )
+                    };
                     let y1 = ctx.approach1_y_m(delta_s, factor);
-                    let l = mv.diameter_m * crate::wind::approach1::correlation_length_per_diameter(y1 / mv.diameter_m);
+                    let l = mv.diameter_m
+                        * crate::wind::approach1::correlation_length_per_diameter(
+                            y1 / mv.diameter_m,
+                        );
                     let w = strakes::coverage(&ctx.shape, z_a, l, from, to);
                     let met = mv.scruton > strakes::MIN_SCRUTON_FOR_STRAKES;
                     let mut after = outcome_of(&ctx, delta_s, Some(y1), None);
@@ -257,7 +265,12 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
     out
 }
 
-fn tmd_result(ctx: &ModeContext, mass: TmdMass, before: Outcome, warnings: &mut Vec<String>) -> TmdResult {
+fn tmd_result(
+    ctx: &ModeContext,
+    mass: TmdMass,
+    before: Outcome,
+    warnings: &mut Vec<String>,
+) -> TmdResult {
     let mv = ctx.checked;
     let modal = ctx.mode.modal_mass_kg;
     let (mu, kg) = match mass {
@@ -289,7 +302,8 @@ fn tmd_result(ctx: &ModeContext, mass: TmdMass, before: Outcome, warnings: &mut 
         };
         (outcome_of(ctx, delta, Some(y1), Some(y2)), Some(y))
     };
-    let stroke_per_main = tmd::two_dof(1.0, mu, f_ratio, zeta_tmd, delta_s / (2.0 * PI)).stroke_per_main;
+    let stroke_per_main =
+        tmd::two_dof(1.0, mu, f_ratio, zeta_tmd, delta_s / (2.0 * PI)).stroke_per_main;
     TmdResult {
         stage: mv.stage.clone(),
         mode: mv.mode,
@@ -323,9 +337,15 @@ impl RemedyResults {
         for r in &self.required_damping {
             for (name, q) in [("approach 1", &r.approach1), ("approach 2", &r.approach2)] {
                 let note = if q.already_meets {
-                    format!("{name} already meets the criteria at delta_s = {}", r.before.log_decrement)
+                    format!(
+                        "{name} already meets the criteria at delta_s = {}",
+                        r.before.log_decrement
+                    )
                 } else if q.log_decrement.is_none() {
-                    format!("{name}: not reachable by damping below delta = {}", required::MAX_LOG_DECREMENT)
+                    format!(
+                        "{name}: not reachable by damping below delta = {}",
+                        required::MAX_LOG_DECREMENT
+                    )
                 } else {
                     format!("smallest structural delta_s meeting every criterion by {name}")
                 };

@@ -26,7 +26,12 @@ pub struct ModeContext<'a> {
 }
 
 impl<'a> ModeContext<'a> {
-    pub fn new(case: &'a Case, model: &'a StageModel, mode: &'a Mode, checked: &'a ModeVortex) -> Self {
+    pub fn new(
+        case: &'a Case,
+        model: &'a StageModel,
+        mode: &'a Mode,
+        checked: &'a ModeVortex,
+    ) -> Self {
         let shape = ModeShape::from_mode(model, mode);
         let ia = shape.largest_antinode();
         let phi_a = mode.displacement[ia];

@@ -41,9 +41,9 @@ impl Vary {
             arg: arg.to_string(),
             rule: rule.to_string(),
         };
-        let (key, range) = arg
-            .split_once('=')
-            .ok_or_else(|| bad("expected KEY=FROM:TO:STEPS, e.g. shell.elastic_modulus_gpa=28:36:9"))?;
+        let (key, range) = arg.split_once('=').ok_or_else(|| {
+            bad("expected KEY=FROM:TO:STEPS, e.g. shell.elastic_modulus_gpa=28:36:9")
+        })?;
         let key = key.trim();
         if key.is_empty() {
             return Err(bad("the key is empty"));
@@ -67,7 +67,9 @@ impl Vary {
             return Err(bad("STEPS must be at least 1"));
         }
         if steps == 1 && from != to {
-            return Err(bad("STEPS = 1 needs FROM = TO (one value); use STEPS >= 2 for a range"));
+            return Err(bad(
+                "STEPS = 1 needs FROM = TO (one value); use STEPS >= 2 for a range",
+            ));
         }
         Ok(Vary {
             key: key.to_string(),
@@ -110,10 +112,7 @@ pub fn grid_point(vary: &[Vary], index: usize) -> Vec<f64> {
         idx[k] = rest % v.steps;
         rest /= v.steps;
     }
-    vary.iter()
-        .zip(idx)
-        .map(|(v, i)| v.values()[i])
-        .collect()
+    vary.iter().zip(idx).map(|(v, i)| v.values()[i]).collect()
 }
 
 /// Index of each key's value in variant `index`.
@@ -241,9 +240,10 @@ pub fn summarise(outcome: &VariantOutcome) -> (Class, Option<f64>) {
                 })
                 .max()
                 .unwrap_or(Class::Clear);
-            let ratio = rows.iter().map(|r| r.speed_ratio).fold(None, |a: Option<f64>, r| {
-                Some(a.map_or(r, |a| a.min(r)))
-            });
+            let ratio = rows
+                .iter()
+                .map(|r| r.speed_ratio)
+                .fold(None, |a: Option<f64>, r| Some(a.map_or(r, |a| a.min(r))));
             (class, ratio)
         }
         _ => (Class::Invalid, None),
@@ -285,7 +285,11 @@ pub fn lock_in_map(vary: &[Vary], kx: usize, ky: usize, variants: &[Variant]) ->
         let c = idx[ky] * nx + idx[kx];
         let (class, ratio) = summarise(&v.outcome);
         let cell = &mut cells[c];
-        cell.class = if seen[c] { cell.class.max(class) } else { class };
+        cell.class = if seen[c] {
+            cell.class.max(class)
+        } else {
+            class
+        };
         seen[c] = true;
         cell.min_speed_ratio = match (cell.min_speed_ratio, ratio) {
             (Some(a), Some(b)) => Some(a.min(b)),
