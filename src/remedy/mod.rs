@@ -363,7 +363,7 @@ impl RemedyResults {
                     },
                     tip_amplitude_after_m: after_tip,
                     max_stress_before_pa: r.before.max_stress_pa,
-                    max_stress_after_pa: None,
+                    max_stress_after_pa: q.max_stress_pa,
                     verdict_before: r.before.verdict.to_string(),
                     verdict_after: if q.already_meets {
                         "ok".into()

@@ -26,6 +26,8 @@ pub struct Required {
     /// Antinode amplitude at that decrement, m.
     pub y_max_m: Option<f64>,
     pub tip_amplitude_m: Option<f64>,
+    /// Largest stress at that decrement, Pa.
+    pub max_stress_pa: Option<f64>,
 }
 
 /// Smallest decrement in [delta_now, MAX] at which `passes` holds (monotone in delta).
@@ -57,6 +59,7 @@ pub fn required(ctx: &ModeContext, amplitude: impl Fn(f64) -> f64) -> Required {
             scruton: None,
             y_max_m: None,
             tip_amplitude_m: None,
+            max_stress_pa: None,
         };
     }
     let d = smallest_passing(delta_now, passes);
@@ -67,6 +70,7 @@ pub fn required(ctx: &ModeContext, amplitude: impl Fn(f64) -> f64) -> Required {
         scruton: d.map(|d| ctx.scruton(d)),
         y_max_m: y,
         tip_amplitude_m: y.map(|y| y * ctx.tip_per_antinode),
+        max_stress_pa: y.map(|y| y * ctx.stress_per_antinode_pa_m),
     }
 }
 
