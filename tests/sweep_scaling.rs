@@ -24,8 +24,8 @@ fn e_sweep_scales_every_frequency_as_sqrt_e() {
             other => panic!("{other:?}"),
         })
         .collect();
-    for k in 0..rows[0].len() {
-        let f0 = rows[0][k].frequency_hz;
+    for (k, base) in rows[0].iter().enumerate() {
+        let f0 = base.frequency_hz;
         for (i, e) in [(1, 30.0), (2, 40.0)] {
             let expected = f0 * (e / 20.0f64).sqrt();
             let got = rows[i][k].frequency_hz;
