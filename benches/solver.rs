@@ -66,6 +66,7 @@ fn case() -> Case {
         },
         criteria: Criteria::default(),
         model: None,
+        remedy: None,
     }
 }
 

@@ -26,6 +26,8 @@ pub struct Case {
     pub criteria: Criteria,
     /// Aeroelastic model planning inputs (`[model]`), if given.
     pub model: Option<ModelSpec>,
+    /// Remedies to size and re-check (`[remedy]`), if given.
+    pub remedy: Option<RemedySpec>,
 }
 
 /// Beam theory of the shell elements.
@@ -291,4 +293,44 @@ pub struct ModelSpec {
     /// Usable tunnel speed range, m/s.
     pub tunnel_speed_min_m_s: Option<f64>,
     pub tunnel_speed_max_m_s: Option<f64>,
+}
+
+/// Remedies to size and re-check (`[remedy]`).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct RemedySpec {
+    pub tmd: Option<TmdSpec>,
+    pub strakes: Option<StrakesSpec>,
+}
+
+/// How the tuned mass damper's mass is given.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub enum TmdMass {
+    /// mu = m_tmd / M_modal, the modal mass with the shape normalised to 1 at the damper.
+    Ratio(f64),
+    /// Damper mass, kg (mu follows per stage from the modal mass).
+    Kg(f64),
+}
+
+/// A tuned mass damper on one mode (`[remedy.tmd]`).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct TmdSpec {
+    /// 1-based mode number (<= `vortex.modes`).
+    pub mode: usize,
+    pub mass: TmdMass,
+    /// Stage name; `None` = every stage.
+    pub stage: Option<String>,
+}
+
+/// Helical strakes over a height range (`[remedy.strakes]`).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct StrakesSpec {
+    /// Straked range, m (0 <= from < to <= shell height).
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    /// User factor on c_lat over the straked range (EN 1991-1-4 gives none), 0..=1.
+    pub c_lat_factor: f64,
+    /// Along-wind force coefficient of the straked part, reported for the along-wind design.
+    pub drag_coefficient: f64,
+    /// Stage name; `None` = every stage.
+    pub stage: Option<String>,
 }

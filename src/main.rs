@@ -40,6 +40,19 @@ enum Command {
         #[arg(long)]
         force: bool,
     },
+    /// Design sweep: analyse a full grid of case-file values (like `check` for each variant),
+    /// write sweep.csv and, for two or more keys, the lock-in map sweep_map.svg.
+    Sweep {
+        /// Case file (TOML).
+        case: PathBuf,
+        /// KEY=FROM:TO:STEPS, KEY a case-file key path (e.g. shell.stations[2].wall_m);
+        /// STEPS values evenly spaced, ends included. Repeat for a grid.
+        #[arg(long = "vary", required = true)]
+        vary: Vec<String>,
+        /// Output folder.
+        #[arg(long, default_value = "stackwake-out")]
+        out: PathBuf,
+    },
     /// Natural frequencies and mode shapes of every construction stage.
     Modes {
         /// Case file (TOML); the built-in invented demo when omitted.
@@ -109,6 +122,7 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
             )?)
         }
         Command::New { file, force } => Ok(commands::new::run(&file, force)?),
+        Command::Sweep { case, vary, out } => Ok(commands::sweep::run(&case, &vary, &out)?),
         Command::Modes {
             case,
             out,

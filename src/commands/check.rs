@@ -8,6 +8,7 @@ use serde::Serialize;
 use crate::case::Case;
 use crate::error::Error;
 use crate::modal::{analyse_case, ModalOptions, StageModes};
+use crate::remedy::{self, RemedyResults};
 use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::staging::Staging;
 use crate::report::table;
@@ -30,6 +31,8 @@ pub struct CheckResults {
     pub case: Case,
     pub stages: Vec<StageModes>,
     pub vortex: VortexResults,
+    /// Required damping of failing modes and the case's `[remedy]` devices, re-checked.
+    pub remedies: RemedyResults,
 }
 
 /// One row of lock_in.csv: our own addition (not a code method), the band of heights over
@@ -51,10 +54,12 @@ pub fn analyse(case: Case, options: CheckOptions) -> Result<CheckResults, Error>
     };
     let stages = analyse_case(&case, modal)?;
     let vortex = wind::check_all(&case, &stages);
+    let remedies = remedy::compute(&case, &stages, &vortex);
     Ok(CheckResults {
         case,
         stages,
         vortex,
+        remedies,
     })
 }
 
@@ -110,6 +115,73 @@ pub fn verdict_table(results: &CheckResults) -> String {
     )
 }
 
+/// The remedy table: each remedy beside the unmitigated result.
+pub fn remedy_table(remedies: &RemedyResults) -> String {
+    let rows: Vec<Vec<String>> = remedies
+        .rows()
+        .into_iter()
+        .map(|r| {
+            vec![
+                r.stage,
+                r.mode.to_string(),
+                r.remedy,
+                fmt_opt(r.log_decrement, 4),
+                fmt_opt(r.scruton, 1),
+                fmt_opt(r.tip_amplitude_before_m, 4),
+                fmt_opt(r.tip_amplitude_after_m, 4),
+                fmt_opt(r.max_stress_before_pa.map(|p| p / 1e6), 2),
+                fmt_opt(r.max_stress_after_pa.map(|p| p / 1e6), 2),
+                r.verdict_after,
+            ]
+        })
+        .collect();
+    table::render(
+        &[
+            "stage",
+            "mode",
+            "remedy",
+            "log_decrement",
+            "scruton",
+            "tip_before_m",
+            "tip_after_m",
+            "stress_before_mpa",
+            "stress_after_mpa",
+            "verdict_after",
+        ],
+        &rows,
+    )
+}
+
+/// Writes remedy.csv into the staging folder.
+pub fn stage_remedy_file(staging: &mut Staging, remedies: &RemedyResults) -> Result<(), Error> {
+    let mut rows = remedies.rows();
+    for r in &mut rows {
+        r.stage = safe_text(&r.stage);
+    }
+    staging.write(
+        "remedy.csv",
+        &to_csv_with_header(
+            "remedy.csv",
+            &[
+                "stage",
+                "mode",
+                "remedy",
+                "log_decrement",
+                "scruton",
+                "tip_amplitude_before_m",
+                "tip_amplitude_after_m",
+                "max_stress_before_pa",
+                "max_stress_after_pa",
+                "verdict_before",
+                "verdict_after",
+                "note",
+            ],
+            &rows,
+        )?,
+    )?;
+    Ok(())
+}
+
 fn lock_in_rows(v: &VortexResults) -> Vec<LockInRow> {
     v.stages
         .iter()
@@ -159,7 +231,7 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
 /// All warnings of the run, each prefixed with its stage and the modes it concerns; a
 /// message repeated for several modes of a stage is given once.
 pub fn warnings(results: &CheckResults) -> Vec<String> {
-    let mut out = Vec::new();
+    let mut out = results.remedies.warnings.clone();
     for s in &results.vortex.stages {
         for w in &s.warnings {
             out.push(format!("stage \"{}\": {w}", s.stage));
@@ -256,6 +328,7 @@ pub fn run(
     stage_vortex_files(&mut staging, &results.vortex)?;
     let warnings = warnings(&results);
     stage_note_files(&mut staging, &results, &warnings, &note_date())?;
+    stage_remedy_file(&mut staging, &results.remedies)?;
     let files = staging.commit()?;
     let mut stdout = format!("{}\n\n", results.case.title);
     stdout.push_str(&modes_table(&results.stages));
@@ -267,6 +340,18 @@ pub fn run(
     stdout.push_str(
         "* lock_in_band: our own addition, not a code method: heights where b(z) n / St is below the mean wind speed.\n",
     );
+    if !results.remedies.is_empty() {
+        stdout.push_str(
+            "\nremedies (each re-checked with the same EN 1991-1-4 Annex E functions; before = unmitigated)\n",
+        );
+        stdout.push_str(&remedy_table(&results.remedies));
+        for r in results.remedies.rows() {
+            stdout.push_str(&format!(
+                "  {} mode {} {}: {}\n",
+                r.stage, r.mode, r.remedy, r.note
+            ));
+        }
+    }
     stdout.push_str(
         "Screening tool: results must be checked by a licensed engineer against the local code and National Annex.\n",
     );

@@ -6,6 +6,7 @@ pub mod check;
 pub mod modes;
 pub mod new;
 pub mod scale;
+pub mod sweep;
 
 use std::path::{Path, PathBuf};
 

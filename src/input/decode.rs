@@ -76,12 +76,13 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     let vortex = decode_optional_table(table.remove("vortex"), "vortex", &mut issues);
     let criteria = decode_optional_table(table.remove("criteria"), "criteria", &mut issues);
     let model = decode_optional_table(table.remove("model"), "model", &mut issues);
+    let remedy = decode_optional_table(table.remove("remedy"), "remedy", &mut issues);
 
     if !issues.is_empty() {
         return Err(issues);
     }
     match (
-        shell, lining, point_mass, base, stage, wind, vortex, criteria, model,
+        shell, lining, point_mass, base, stage, wind, vortex, criteria, model, remedy,
     ) {
         (
             Some(shell),
@@ -93,6 +94,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
             Some(vortex),
             Some(criteria),
             Some(model),
+            Some(remedy),
         ) => {
             let stage = match stage {
                 None => None,
@@ -112,6 +114,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
                 vortex: vortex.unwrap_or_default(),
                 criteria: criteria.unwrap_or_default(),
                 model,
+                remedy,
             })
         }
         _ => Err(vec![ValidationIssue::key(

@@ -8,6 +8,7 @@
 
 pub mod decode;
 pub mod issue;
+pub mod keypath;
 pub mod measured_csv;
 pub mod raw;
 pub mod stations_csv;
@@ -125,30 +126,34 @@ impl InputError {
 /// file's folder.
 pub fn load_case(path: &Path) -> Result<Case, InputError> {
     let label = path.display().to_string();
-    let text = read_limited(path, &label, "case file").map_err(|e| match e {
+    let text = read_case_file(path, &label)?;
+    let base_dir = path.parent().unwrap_or_else(|| Path::new(""));
+    parse_case(&text, base_dir, &label)
+}
+
+/// Reads a case file into its TOML table without validating it (sweeps edit the table
+/// per variant, then validate with [`parse_case_table`]).
+pub fn read_case_table(path: &Path) -> Result<toml::Table, InputError> {
+    let label = path.display().to_string();
+    let text = read_case_file(path, &label)?;
+    parse_case_text(&text, &label)
+}
+
+fn read_case_file(path: &Path, label: &str) -> Result<String, InputError> {
+    read_limited(path, label, "case file").map_err(|e| match e {
         ReadFailure::Io(source) => InputError::Read {
             path: path.to_path_buf(),
             source,
         },
         ReadFailure::Other(e) => e,
-    })?;
-    let base_dir = path.parent().unwrap_or_else(|| Path::new(""));
-    parse_case(&text, base_dir, &label)
+    })
 }
 
 /// Parses and validates case-file text. `base_dir` is where a relative `stations_csv` is
 /// looked for; `file_label` names the file in messages.
 pub fn parse_case(text: &str, base_dir: &Path, file_label: &str) -> Result<Case, InputError> {
     parse_case_from(text, file_label, |name| {
-        let csv_path = base_dir.join(name);
-        read_limited(&csv_path, name, "stations CSV").map_err(|e| match e {
-            ReadFailure::Io(source) => InputError::StationsCsv {
-                label: file_label.to_string(),
-                path: csv_path.clone(),
-                source,
-            },
-            ReadFailure::Other(e) => e,
-        })
+        read_stations_file(base_dir, name, file_label)
     })
 }
 
@@ -177,11 +182,8 @@ pub fn parse_case_with_csv(
 }
 
 /// The common path: `read_csv` fetches the text of the stations CSV named in the case.
-fn parse_case_from(
-    text: &str,
-    file_label: &str,
-    read_csv: impl FnOnce(&str) -> Result<String, InputError>,
-) -> Result<Case, InputError> {
+/// Parses case-file text into a TOML table (size, emptiness and syntax checks only).
+pub fn parse_case_text(text: &str, file_label: &str) -> Result<toml::Table, InputError> {
     let label = file_label.to_string();
     if text.len() as u64 > MAX_INPUT_BYTES {
         return Err(InputError::TooLarge {
@@ -194,7 +196,7 @@ fn parse_case_from(
     if text.trim().is_empty() {
         return Err(InputError::Empty { label });
     }
-    let table: toml::Table = toml::from_str(text).map_err(|e| {
+    toml::from_str(text).map_err(|e| {
         let (line, column) = e
             .span()
             .map(|s| line_column(text, s.start))
@@ -205,7 +207,49 @@ fn parse_case_from(
             column,
             message: e.message().trim().replace('\n', "; "),
         }
-    })?;
+    })
+}
+
+/// Validates an already parsed case-file table (used by sweeps, which edit one parsed table
+/// per variant instead of re-parsing text). Same rules and messages as [`parse_case`].
+pub fn parse_case_table(
+    table: toml::Table,
+    base_dir: &Path,
+    file_label: &str,
+) -> Result<Case, InputError> {
+    parse_table_with(table, file_label, |name| {
+        read_stations_file(base_dir, name, file_label)
+    })
+}
+
+fn read_stations_file(base_dir: &Path, name: &str, file_label: &str) -> Result<String, InputError> {
+    let csv_path = base_dir.join(name);
+    read_limited(&csv_path, name, "stations CSV").map_err(|e| match e {
+        ReadFailure::Io(source) => InputError::StationsCsv {
+            label: file_label.to_string(),
+            path: csv_path.clone(),
+            source,
+        },
+        ReadFailure::Other(e) => e,
+    })
+}
+
+/// The common path: `read_csv` fetches the text of the stations CSV named in the case.
+fn parse_case_from(
+    text: &str,
+    file_label: &str,
+    read_csv: impl FnOnce(&str) -> Result<String, InputError>,
+) -> Result<Case, InputError> {
+    let table = parse_case_text(text, file_label)?;
+    parse_table_with(table, file_label, read_csv)
+}
+
+fn parse_table_with(
+    table: toml::Table,
+    file_label: &str,
+    read_csv: impl FnOnce(&str) -> Result<String, InputError>,
+) -> Result<Case, InputError> {
+    let label = file_label.to_string();
     if table.is_empty() {
         return Err(InputError::Empty { label });
     }

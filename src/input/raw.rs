@@ -28,6 +28,7 @@ pub struct RawCase {
     #[serde(default)]
     pub criteria: RawCriteria,
     pub model: Option<RawModel>,
+    pub remedy: Option<RawRemedy>,
 }
 
 /// Top-level keys of the case file, in file order.
@@ -42,6 +43,7 @@ pub const CASE_KEYS: &[&str] = &[
     "vortex",
     "criteria",
     "model",
+    "remedy",
 ];
 
 /// `[shell]`.
@@ -200,4 +202,34 @@ pub struct RawModel {
     pub max_blockage: Option<f64>,
     pub tunnel_speed_min_m_s: Option<f64>,
     pub tunnel_speed_max_m_s: Option<f64>,
+}
+
+/// `[remedy]`: remedies to size and re-check.
+#[derive(Debug, Clone, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawRemedy {
+    pub tmd: Option<RawTmd>,
+    pub strakes: Option<RawStrakes>,
+}
+
+/// `[remedy.tmd]`: exactly one of `mass_ratio` and `mass_kg`.
+#[derive(Debug, Clone, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawTmd {
+    /// Whole number; signed so that `mode = 0` or `-1` is a range error, not a type error.
+    pub mode: i64,
+    pub mass_ratio: Option<f64>,
+    pub mass_kg: Option<f64>,
+    pub stage: Option<String>,
+}
+
+/// `[remedy.strakes]`.
+#[derive(Debug, Clone, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawStrakes {
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    pub c_lat_factor: f64,
+    pub drag_coefficient: Option<f64>,
+    pub stage: Option<String>,
 }

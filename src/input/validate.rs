@@ -17,13 +17,14 @@ use std::collections::HashSet;
 
 use crate::case::{
     Arrangement, BaseSprings, BeamTheory, Case, Criteria, Group, Lining, LiningMass, ModelSpec,
-    PointMass, Profile, Shell, Stage, Station, Vortex, VortexMethod, Wind,
+    PointMass, Profile, RemedySpec, Shell, Stage, Station, StrakesSpec, TmdMass, TmdSpec, Vortex,
+    VortexMethod, Wind,
 };
 
 use super::issue::ValidationIssue;
 use super::raw::{
-    RawArrangement, RawBeam, RawCase, RawLining, RawMethod, RawModel, RawProfile, RawStation,
-    RawVortex, RawWind,
+    RawArrangement, RawBeam, RawCase, RawLining, RawMethod, RawModel, RawProfile, RawRemedy,
+    RawStation, RawVortex, RawWind,
 };
 use super::stations_csv::CsvStations;
 
@@ -49,6 +50,11 @@ pub const DEFAULT_DESIGN_LIFE_YEARS: f64 = 50.0;
 pub const DEFAULT_MODEL_POISSON_RATIO: f64 = 0.35;
 /// Default largest blockage ratio of a wind-tunnel model (common practice).
 pub const DEFAULT_MAX_BLOCKAGE: f64 = 0.05;
+/// Largest TMD mass ratio accepted: Den Hartog's tuning is a small-mu result and practical
+/// dampers on stacks stay below ~0.1 (common practice).
+pub const MAX_TMD_MASS_RATIO: f64 = 0.3;
+/// Default along-wind force coefficient of a straked section (EN 1991-1-4, from memory).
+pub const DEFAULT_STRAKES_DRAG_COEFFICIENT: f64 = 1.4;
 /// Title when the case file gives none.
 pub const DEFAULT_TITLE: &str = "untitled case";
 
@@ -215,6 +221,10 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             .map(|v| v * 1e6),
     };
     let model = raw.model.as_ref().and_then(|m| check_model(&mut c, m));
+    let remedy = raw
+        .remedy
+        .as_ref()
+        .and_then(|r| check_remedy(&mut c, r, &stages, vortex.as_ref(), height_m));
 
     match (shell, wind, vortex) {
         (Some(shell), Some(wind), Some(vortex)) if c.issues.is_empty() => Ok(Case {
@@ -234,6 +244,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             vortex,
             criteria,
             model,
+            remedy,
         }),
         _ => Err(c.issues),
     }
@@ -844,6 +855,130 @@ fn check_model(c: &mut Checker, m: &RawModel) -> Option<ModelSpec> {
     })
 }
 
+/// A remedy's optional `stage` must name a stage of the case.
+fn check_remedy_stage(
+    c: &mut Checker,
+    path: &str,
+    stage: &Option<String>,
+    stages: &[Stage],
+) -> Option<Option<String>> {
+    match stage {
+        None => Some(None),
+        Some(name) => {
+            let name = name.trim();
+            if stages.iter().any(|s| s.name == name) {
+                Some(Some(name.to_string()))
+            } else {
+                let known: Vec<String> = stages.iter().map(|s| format!("{:?}", s.name)).collect();
+                c.issues.push(ValidationIssue::new(
+                    path,
+                    format!("{name:?}"),
+                    format!("no such stage; the stages are {}", known.join(", ")),
+                ));
+                None
+            }
+        }
+    }
+}
+
+fn check_remedy(
+    c: &mut Checker,
+    r: &RawRemedy,
+    stages: &[Stage],
+    vortex: Option<&Vortex>,
+    height_m: Option<f64>,
+) -> Option<RemedySpec> {
+    let before = c.issues.len();
+    let tmd = r.tmd.as_ref().and_then(|t| {
+        let modes = vortex.map_or(MAX_MODES, |v| v.modes as i64);
+        let mode_ok = if t.mode < 1 || t.mode > modes {
+            c.issues.push(ValidationIssue::new(
+                "remedy.tmd.mode",
+                t.mode.to_string(),
+                format!("must be a checked mode, 1 to {modes} (vortex.modes)"),
+            ));
+            false
+        } else {
+            true
+        };
+        let mass = match (t.mass_ratio, t.mass_kg) {
+            (Some(mu), None) => {
+                let ok = c.positive("remedy.tmd.mass_ratio", mu)
+                    && (mu <= MAX_TMD_MASS_RATIO
+                        || c.fail(
+                            "remedy.tmd.mass_ratio",
+                            mu,
+                            format!(
+                                "must be at most {MAX_TMD_MASS_RATIO} (Den Hartog's tuning is a \
+                                 small-mass-ratio result)"
+                            ),
+                        ));
+                ok.then_some(TmdMass::Ratio(mu))
+            }
+            (None, Some(kg)) => c
+                .positive("remedy.tmd.mass_kg", kg)
+                .then_some(TmdMass::Kg(kg)),
+            (Some(_), Some(_)) => {
+                c.key(
+                    "remedy.tmd",
+                    "give exactly one of mass_ratio and mass_kg, not both",
+                );
+                None
+            }
+            (None, None) => {
+                c.key(
+                    "remedy.tmd",
+                    "give the damper mass: mass_ratio (to the modal mass) or mass_kg",
+                );
+                None
+            }
+        };
+        let stage = check_remedy_stage(c, "remedy.tmd.stage", &t.stage, stages);
+        match (mode_ok, mass, stage) {
+            (true, Some(mass), Some(stage)) => Some(TmdSpec {
+                mode: t.mode as usize,
+                mass,
+                stage,
+            }),
+            _ => None,
+        }
+    });
+    let strakes = r.strakes.as_ref().and_then(|s| {
+        let from_ok = c.non_negative("remedy.strakes.from_z_m", s.from_z_m)
+            && within_shell(c, "remedy.strakes.from_z_m", s.from_z_m, height_m);
+        let to_ok = c.finite("remedy.strakes.to_z_m", s.to_z_m)
+            && within_shell(c, "remedy.strakes.to_z_m", s.to_z_m, height_m);
+        if from_ok && to_ok && s.to_z_m <= s.from_z_m {
+            c.fail(
+                "remedy.strakes.to_z_m",
+                s.to_z_m,
+                format!("must be above from_z_m ({} m)", num(s.from_z_m)),
+            );
+        }
+        let f = s.c_lat_factor;
+        if c.finite("remedy.strakes.c_lat_factor", f) && !(0.0..=1.0).contains(&f) {
+            c.fail(
+                "remedy.strakes.c_lat_factor",
+                f,
+                "must be between 0 and 1 (a factor that reduces c_lat)",
+            );
+        }
+        let cd = s
+            .drag_coefficient
+            .unwrap_or(DEFAULT_STRAKES_DRAG_COEFFICIENT);
+        c.positive("remedy.strakes.drag_coefficient", cd);
+        let stage = check_remedy_stage(c, "remedy.strakes.stage", &s.stage, stages)?;
+        Some(StrakesSpec {
+            from_z_m: s.from_z_m,
+            to_z_m: s.to_z_m,
+            c_lat_factor: f,
+            drag_coefficient: cd,
+            stage,
+        })
+    });
+    (c.issues.len() == before).then_some(RemedySpec { tmd, strakes })
+}
+
 #[cfg(test)]
 mod tests {
     use std::path::Path;
@@ -1334,5 +1469,41 @@ reference_speed_m_s = 25.0
             .replacen("mass_kg = 10000.0", "mass_kg = -5.0", 1);
         let errs = run(&text).unwrap_err();
         assert_eq!(errs.len(), 3, "{errs:?}");
+    }
+
+    #[test]
+    fn remedy_rules() {
+        let case = run(&append(
+            "[remedy.tmd]\nmode = 1\nmass_ratio = 0.02\n[remedy.strakes]\nfrom_z_m = 60.0\nto_z_m = 100.0\nc_lat_factor = 0.3",
+        ))
+        .expect("valid");
+        let r = case.remedy.expect("remedy");
+        assert_eq!(r.tmd.unwrap().mass, TmdMass::Ratio(0.02));
+        let s = r.strakes.unwrap();
+        assert_eq!(s.drag_coefficient, DEFAULT_STRAKES_DRAG_COEFFICIENT);
+        fails_with(
+            &append("[remedy.tmd]\nmode = 1\nmass_ratio = -1.0"),
+            "remedy.tmd.mass_ratio = -1: must be > 0",
+        );
+        fails_with(
+            &append("[remedy.tmd]\nmode = 4\nmass_kg = 1000.0"),
+            "remedy.tmd.mode = 4: must be a checked mode, 1 to 3 (vortex.modes)",
+        );
+        fails_with(
+            &append("[remedy.tmd]\nmode = 1\nmass_kg = 1000.0\nmass_ratio = 0.01"),
+            "remedy.tmd: give exactly one of mass_ratio and mass_kg, not both",
+        );
+        fails_with(
+            &append("[remedy.tmd]\nmode = 1\nmass_kg = 1000.0\nstage = \"nope\""),
+            "remedy.tmd.stage = \"nope\": no such stage; the stages are \"shell only\", \"lined\"",
+        );
+        fails_with(
+            &append("[remedy.strakes]\nfrom_z_m = 60.0\nto_z_m = 50.0\nc_lat_factor = 0.3"),
+            "remedy.strakes.to_z_m = 50: must be above from_z_m (60 m)",
+        );
+        fails_with(
+            &append("[remedy.strakes]\nfrom_z_m = 60.0\nto_z_m = 90.0\nc_lat_factor = 1.5"),
+            "remedy.strakes.c_lat_factor = 1.5: must be between 0 and 1 (a factor that reduces c_lat)",
+        );
     }
 }

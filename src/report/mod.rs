@@ -8,6 +8,7 @@ pub mod json;
 pub mod scale_plot;
 pub mod staging;
 pub mod svg;
+pub mod sweep;
 pub mod table;
 
 use std::path::PathBuf;

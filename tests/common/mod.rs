@@ -55,6 +55,7 @@ pub fn shell_case(
         },
         criteria: Criteria::default(),
         model: None,
+        remedy: None,
     }
 }
 

@@ -56,6 +56,7 @@ pub fn case(wind: Wind, method: VortexMethod, criteria: Criteria) -> Case {
         },
         criteria,
         model: None,
+        remedy: None,
     }
 }
 

@@ -1,0 +1,106 @@
+//! Sweep speed: 10 000 variants x 2 stages x 3 modes with approach 1 (the invented demo stack
+//! without its partial-height stage), and the cost breakdown of one stage analysis: mesh and
+//! section integration, eigen-solve, modal post-processing, wind checks, and the per-variant
+//! case-table edit + validation. Prints a table; run with `cargo bench --bench sweep`.
+//! Figures are wall-clock medians on the current machine.
+
+use std::path::Path;
+use std::time::{Duration, Instant};
+
+use stackwake::commands::sweep::run_grid;
+use stackwake::fem::{lowest_modes, BeamModel};
+use stackwake::input::{keypath, parse_case_table, parse_case_text, DEMO_CASE_TOML};
+use stackwake::modal::stage_modes;
+use stackwake::sweep::Vary;
+use stackwake::wind;
+
+fn median(mut v: Vec<Duration>) -> Duration {
+    v.sort();
+    v[v.len() / 2]
+}
+
+fn time<F: FnMut()>(runs: usize, mut f: F) -> Duration {
+    f();
+    median(
+        (0..runs)
+            .map(|_| {
+                let t = Instant::now();
+                f();
+                t.elapsed()
+            })
+            .collect(),
+    )
+}
+
+fn us(d: Duration) -> f64 {
+    d.as_secs_f64() * 1e6
+}
+
+fn main() {
+    let mut table = parse_case_text(DEMO_CASE_TOML, "demo").expect("demo");
+    // Two stages (shell only, lined): drop the partial-height stage.
+    if let Some(toml::Value::Array(stages)) = table.get_mut("stage") {
+        stages.remove(0);
+    }
+    let case = parse_case_table(table.clone(), Path::new("."), "demo").expect("valid");
+    assert_eq!(case.stages.len(), 2);
+    let stage = case.stages[1].clone();
+    let modes = case.vortex.modes;
+    let runs = 201;
+
+    let t_mesh = time(runs, || {
+        std::hint::black_box(BeamModel::build(&case, &stage, None, modes));
+    });
+    let beam = BeamModel::build(&case, &stage, None, modes);
+    let t_eig = time(runs, || {
+        std::hint::black_box(lowest_modes(&beam, modes).expect("solve"));
+    });
+    let sol = lowest_modes(&beam, modes).expect("solve");
+    let t_post = time(runs, || {
+        std::hint::black_box(stage_modes(&stage, &beam, &sol));
+    });
+    let sm = stage_modes(&stage, &beam, &sol);
+    let t_wind = time(runs, || {
+        std::hint::black_box(wind::check_stage(&case, &sm));
+    });
+    let t_input = time(runs, || {
+        let mut t = table.clone();
+        keypath::set_number(&mut t, "shell.elastic_modulus_gpa", 31.0).unwrap();
+        std::hint::black_box(parse_case_table(t, Path::new("."), "demo").expect("valid"));
+    });
+    let total = t_mesh + t_eig + t_post + t_wind;
+    println!(
+        "one stage analysis (lined, {} elements, {modes} modes), single thread, median of {runs}",
+        beam.elements.len()
+    );
+    println!("{:<44} {:>10}", "part", "us");
+    for (name, d) in [
+        ("mesh + section integration (BeamModel::build)", t_mesh),
+        ("eigen-solve (subspace + Sturm check)", t_eig),
+        ("modal post-processing (shapes, m_e)", t_post),
+        ("wind checks (approach 1/2, GB, loads)", t_wind),
+    ] {
+        println!("{name:<44} {:>10.1}", us(d));
+    }
+    println!("{:<44} {:>10.1}", "stage analysis total", us(total));
+    println!(
+        "{:<44} {:>10.1}",
+        "per variant: table edit + validation",
+        us(t_input)
+    );
+
+    let vary = vec![
+        Vary::parse("shell.elastic_modulus_gpa=28:36:100").unwrap(),
+        Vary::parse("vortex.log_decrement=0.02:0.06:100").unwrap(),
+    ];
+    let t = Instant::now();
+    let v = run_grid(&table, Path::new("."), "demo", &vary, &|| {}).expect("sweep");
+    let secs = t.elapsed().as_secs_f64();
+    println!(
+        "sweep: {} variants x 2 stages x {modes} modes on {} threads: {secs:.2} s ({:.3} ms per variant, {:.3} ms per stage analysis per core)",
+        v.len(),
+        rayon::current_num_threads(),
+        secs * 1e3 / v.len() as f64,
+        secs * 1e3 * rayon::current_num_threads() as f64 / (2.0 * v.len() as f64)
+    );
+}

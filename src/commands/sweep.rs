@@ -1,0 +1,211 @@
+//! `sweep`: a full grid of case-file values, every variant analysed exactly like `check`, in
+//! parallel on all cores (rayon), with a progress bar on a terminal (indicatif) and silence
+//! otherwise. Writes sweep.csv and, when two or more keys vary, sweep_map.svg over the first
+//! two. A variant that breaks a case-file rule becomes a row `invalid: <message>`; a key that
+//! does not exist or is not a number stops the sweep before any work (exit 2).
+
+use std::path::Path;
+
+use indicatif::{ProgressBar, ProgressStyle};
+use rayon::prelude::*;
+
+use crate::error::Error;
+use crate::input::{self, keypath};
+use crate::report::staging::Staging;
+use crate::report::sweep::{lock_in_map_svg, sweep_csv};
+use crate::sweep::{self, Class, Variant, VariantOutcome, Vary};
+
+use super::CommandReport;
+
+/// Checks that every key exists in the case file and holds a number.
+pub fn check_keys(table: &toml::Table, vary: &[Vary]) -> Result<(), Error> {
+    for v in vary {
+        keypath::get_number(table, &v.key).map_err(|e| Error::Usage {
+            option: "--vary".into(),
+            value: v.key.clone(),
+            rule: e.to_string(),
+        })?;
+    }
+    let mut keys: Vec<&str> = vary.iter().map(|v| v.key.as_str()).collect();
+    keys.sort_unstable();
+    if keys.windows(2).any(|w| w[0] == w[1]) {
+        return Err(Error::Usage {
+            option: "--vary".into(),
+            value: vary
+                .iter()
+                .map(|v| v.key.as_str())
+                .collect::<Vec<_>>()
+                .join(" "),
+            rule: "each key may be varied only once".into(),
+        });
+    }
+    Ok(())
+}
+
+/// Analyses one variant: edits the parsed case table, validates, analyses.
+pub fn run_variant(
+    table: &toml::Table,
+    base_dir: &Path,
+    label: &str,
+    vary: &[Vary],
+    index: usize,
+) -> Variant {
+    let values = sweep::grid_point(vary, index);
+    let mut t = table.clone();
+    for (v, &x) in vary.iter().zip(&values) {
+        if let Err(e) = keypath::set_number(&mut t, &v.key, x) {
+            // Keys are checked before the sweep; this is only reachable if the table changed.
+            return Variant {
+                index,
+                values,
+                outcome: VariantOutcome::Invalid(e.to_string()),
+            };
+        }
+    }
+    let outcome = match input::parse_case_table(t, base_dir, label) {
+        Err(e) => {
+            let issues = e.issues();
+            let msg = if issues.is_empty() {
+                e.to_string()
+            } else {
+                issues
+                    .iter()
+                    .map(|i| i.to_string())
+                    .collect::<Vec<_>>()
+                    .join("; ")
+            };
+            VariantOutcome::Invalid(msg)
+        }
+        Ok(case) => match sweep::analyse_variant(&case) {
+            Ok(rows) => VariantOutcome::Rows(rows),
+            Err(e) => VariantOutcome::Failed(e.to_string()),
+        },
+    };
+    Variant {
+        index,
+        values,
+        outcome,
+    }
+}
+
+/// Runs the whole grid in parallel; `progress` is called once per finished variant.
+pub fn run_grid(
+    table: &toml::Table,
+    base_dir: &Path,
+    label: &str,
+    vary: &[Vary],
+    progress: &(dyn Fn() + Sync),
+) -> Result<Vec<Variant>, Error> {
+    let n = sweep::grid_size(vary).ok_or_else(|| Error::Usage {
+        option: "--vary".into(),
+        value: vary
+            .iter()
+            .map(|v| v.steps.to_string())
+            .collect::<Vec<_>>()
+            .join(" x "),
+        rule: format!("the grid may have at most {} variants", sweep::MAX_VARIANTS),
+    })?;
+    check_keys(table, vary)?;
+    Ok((0..n)
+        .into_par_iter()
+        .map(|i| {
+            let v = run_variant(table, base_dir, label, vary, i);
+            progress();
+            v
+        })
+        .collect())
+}
+
+/// Runs `sweep` and writes its outputs.
+pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<CommandReport, Error> {
+    let vary: Vec<Vary> = vary_args
+        .iter()
+        .map(|a| Vary::parse(a))
+        .collect::<Result<_, _>>()
+        .map_err(|e| Error::Usage {
+            option: "--vary".into(),
+            value: match &e {
+                sweep::VaryError::Bad { arg, .. } => arg.clone(),
+            },
+            rule: match e {
+                sweep::VaryError::Bad { rule, .. } => rule,
+            },
+        })?;
+    if vary.is_empty() {
+        return Err(Error::Usage {
+            option: "--vary".into(),
+            value: String::new(),
+            rule: "give at least one --vary KEY=FROM:TO:STEPS".into(),
+        });
+    }
+    let table = input::read_case_table(case_path)?;
+    let label = case_path.display().to_string();
+    let base_dir = case_path.parent().unwrap_or_else(|| Path::new(""));
+    // Fail on a bad key before creating the output folder or doing any work.
+    check_keys(&table, &vary)?;
+    let mut staging = Staging::begin(out)?;
+
+    let n = sweep::grid_size(&vary).unwrap_or(0) as u64;
+    let bar = if std::io::IsTerminal::is_terminal(&std::io::stderr()) {
+        let b = ProgressBar::new(n);
+        if let Ok(style) = ProgressStyle::with_template(
+            "{bar:40} {pos}/{len} variants, {elapsed} elapsed, ~{eta} left",
+        ) {
+            b.set_style(style);
+        }
+        b
+    } else {
+        ProgressBar::hidden()
+    };
+    let start = std::time::Instant::now();
+    let variants = run_grid(&table, base_dir, &label, &vary, &|| bar.inc(1))?;
+    bar.finish_and_clear();
+    let seconds = start.elapsed().as_secs_f64();
+
+    staging.write("sweep.csv", &sweep_csv(&vary, &variants)?)?;
+    if vary.len() >= 2 {
+        let map = sweep::lock_in_map(&vary, 0, 1, &variants);
+        let title = format!("stackwake sweep of {label}");
+        staging.write("sweep_map.svg", lock_in_map_svg(&map, &title).as_bytes())?;
+    }
+    let files = staging.commit()?;
+
+    let mut counts = [0usize; 5];
+    for v in &variants {
+        counts[sweep::summarise(&v.outcome).0 as usize] += 1;
+    }
+    let mut stdout = format!(
+        "{} variants ({}) in {seconds:.2} s on {} threads\n",
+        variants.len(),
+        vary.iter()
+            .map(|v| format!("{} x {}", v.key, v.steps))
+            .collect::<Vec<_>>()
+            .join(", "),
+        rayon::current_num_threads()
+    );
+    for class in Class::ALL {
+        stdout.push_str(&format!(
+            "  worst verdict {:<8} {:>8} variants\n",
+            class.label(),
+            counts[class as usize]
+        ));
+    }
+    stdout.push_str(
+        "Screening tool: results must be checked by a licensed engineer against the local code and National Annex.\n",
+    );
+    let warnings = if counts[Class::Invalid as usize] > 0 {
+        vec![format!(
+            "{} variants break a case-file rule or failed; see the verdict column of sweep.csv",
+            counts[Class::Invalid as usize]
+        )]
+    } else {
+        Vec::new()
+    };
+    Ok(CommandReport {
+        stdout,
+        warnings,
+        // A sweep explores; failing variants are its findings, not a failed check.
+        check_failed: false,
+        files,
+    })
+}

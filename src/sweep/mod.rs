@@ -1,0 +1,339 @@
+//! Design sweeps: a full grid of case-file values (`--vary KEY=FROM:TO:STEPS`), each variant
+//! analysed exactly like `check` (same modal options, same vortex checks), reduced to one row
+//! per stage and mode, and the lock-in map over two swept keys.
+//!
+//! Pure: the grid, the per-variant analysis and the map; reading the case, editing its keys
+//! and writing files live in `input`, `commands::sweep` and `report`.
+//! Units: the swept values are in the case file's own units (the key names them); results SI.
+
+use std::fmt;
+
+use serde::Serialize;
+use thiserror::Error;
+
+use crate::case::Case;
+use crate::modal::{analyse_case, ModalError, ModalOptions};
+use crate::wind::{self, Verdict};
+
+/// Largest grid accepted (variants).
+pub const MAX_VARIANTS: usize = 1_000_000;
+
+/// One swept key: STEPS values from FROM to TO, evenly spaced, ends included.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Vary {
+    pub key: String,
+    pub from: f64,
+    pub to: f64,
+    pub steps: usize,
+}
+
+/// Why a `--vary` argument is unusable.
+#[derive(Debug, Clone, PartialEq, Eq, Error)]
+pub enum VaryError {
+    #[error("--vary {arg}: {rule}")]
+    Bad { arg: String, rule: String },
+}
+
+impl Vary {
+    /// Parses `KEY=FROM:TO:STEPS`.
+    pub fn parse(arg: &str) -> Result<Vary, VaryError> {
+        let bad = |rule: &str| VaryError::Bad {
+            arg: arg.to_string(),
+            rule: rule.to_string(),
+        };
+        let (key, range) = arg.split_once('=').ok_or_else(|| {
+            bad("expected KEY=FROM:TO:STEPS, e.g. shell.elastic_modulus_gpa=28:36:9")
+        })?;
+        let key = key.trim();
+        if key.is_empty() {
+            return Err(bad("the key is empty"));
+        }
+        let parts: Vec<&str> = range.split(':').map(str::trim).collect();
+        let [from, to, steps] = parts.as_slice() else {
+            return Err(bad("expected FROM:TO:STEPS after the key, e.g. 28:36:9"));
+        };
+        let num = |s: &str, what: &str| -> Result<f64, VaryError> {
+            s.parse::<f64>()
+                .ok()
+                .filter(|v| v.is_finite())
+                .ok_or_else(|| bad(&format!("{what} `{s}` is not a finite number")))
+        };
+        let from = num(from, "FROM")?;
+        let to = num(to, "TO")?;
+        let steps: usize = steps
+            .parse()
+            .map_err(|_| bad(&format!("STEPS `{steps}` is not a whole number >= 1")))?;
+        if steps == 0 {
+            return Err(bad("STEPS must be at least 1"));
+        }
+        if steps == 1 && from != to {
+            return Err(bad(
+                "STEPS = 1 needs FROM = TO (one value); use STEPS >= 2 for a range",
+            ));
+        }
+        Ok(Vary {
+            key: key.to_string(),
+            from,
+            to,
+            steps,
+        })
+    }
+
+    /// The values, ends exact.
+    pub fn values(&self) -> Vec<f64> {
+        if self.steps == 1 {
+            return vec![self.from];
+        }
+        let n = (self.steps - 1) as f64;
+        (0..self.steps)
+            .map(|i| {
+                if i + 1 == self.steps {
+                    self.to
+                } else {
+                    self.from + (self.to - self.from) * (i as f64 / n)
+                }
+            })
+            .collect()
+    }
+}
+
+/// Number of variants of the full grid, or `None` above [`MAX_VARIANTS`].
+pub fn grid_size(vary: &[Vary]) -> Option<usize> {
+    vary.iter()
+        .try_fold(1usize, |acc, v| acc.checked_mul(v.steps))
+        .filter(|&n| n <= MAX_VARIANTS)
+}
+
+/// The values of variant `index` (first key slowest, last key fastest).
+pub fn grid_point(vary: &[Vary], index: usize) -> Vec<f64> {
+    let mut rest = index;
+    let mut idx = vec![0; vary.len()];
+    for (k, v) in vary.iter().enumerate().rev() {
+        idx[k] = rest % v.steps;
+        rest /= v.steps;
+    }
+    vary.iter().zip(idx).map(|(v, i)| v.values()[i]).collect()
+}
+
+/// Index of each key's value in variant `index`.
+pub fn grid_indices(vary: &[Vary], index: usize) -> Vec<usize> {
+    let mut rest = index;
+    let mut idx = vec![0; vary.len()];
+    for (k, v) in vary.iter().enumerate().rev() {
+        idx[k] = rest % v.steps;
+        rest /= v.steps;
+    }
+    idx
+}
+
+/// One stage/mode of one variant.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ModeRow {
+    pub stage: String,
+    pub mode: usize,
+    pub frequency_hz: f64,
+    pub critical_speed_m_s: f64,
+    pub speed_ratio: f64,
+    /// Governing method's tip amplitude, m (`None` when screened out).
+    pub tip_amplitude_m: Option<f64>,
+    pub verdict: Verdict,
+}
+
+/// What one variant gave.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub enum VariantOutcome {
+    /// Analysed: one row per stage and checked mode.
+    Rows(Vec<ModeRow>),
+    /// The variant breaks a case-file rule (message names the field).
+    Invalid(String),
+    /// The modal analysis refused the variant.
+    Failed(String),
+}
+
+/// One variant: its grid values and outcome.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Variant {
+    pub index: usize,
+    pub values: Vec<f64>,
+    pub outcome: VariantOutcome,
+}
+
+/// Analyses one valid variant exactly as `check` does (default mesh, `vortex.modes` modes).
+pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
+    let stages = analyse_case(
+        case,
+        ModalOptions {
+            modes: case.vortex.modes,
+            min_elements: None,
+        },
+    )?;
+    let vortex = wind::check_all(case, &stages);
+    Ok(vortex
+        .stages
+        .iter()
+        .flat_map(|s| {
+            s.modes.iter().map(|m| ModeRow {
+                stage: s.stage.clone(),
+                mode: m.mode,
+                frequency_hz: m.frequency_hz,
+                critical_speed_m_s: m.critical_speed_m_s,
+                speed_ratio: m.speed_ratio,
+                tip_amplitude_m: m.governing_summary().tip_amplitude_m,
+                verdict: m.verdict.clone(),
+            })
+        })
+        .collect())
+}
+
+/// Severity class of a variant for the lock-in map, worst first in [`Class::ALL`].
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize)]
+pub enum Class {
+    /// Every checked mode screened out (E.1.2).
+    Clear,
+    /// Responses within every criterion.
+    Ok,
+    /// Responses, no criteria given.
+    Response,
+    /// Some criterion exceeded.
+    Exceeds,
+    /// Invalid variant or failed analysis.
+    Invalid,
+}
+
+impl Class {
+    pub const ALL: [Class; 5] = [
+        Class::Invalid,
+        Class::Exceeds,
+        Class::Response,
+        Class::Ok,
+        Class::Clear,
+    ];
+
+    pub fn label(self) -> &'static str {
+        match self {
+            Class::Clear => "clear",
+            Class::Ok => "ok",
+            Class::Response => "response",
+            Class::Exceeds => "exceeds",
+            Class::Invalid => "invalid",
+        }
+    }
+}
+
+impl fmt::Display for Class {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.label())
+    }
+}
+
+/// Worst class over a variant's rows, and the smallest speed ratio (most at risk).
+pub fn summarise(outcome: &VariantOutcome) -> (Class, Option<f64>) {
+    match outcome {
+        VariantOutcome::Rows(rows) => {
+            let class = rows
+                .iter()
+                .map(|r| match r.verdict {
+                    Verdict::Clear => Class::Clear,
+                    Verdict::Ok => Class::Ok,
+                    Verdict::Response => Class::Response,
+                    Verdict::Exceeds(_) => Class::Exceeds,
+                })
+                .max()
+                .unwrap_or(Class::Clear);
+            let ratio = rows
+                .iter()
+                .map(|r| r.speed_ratio)
+                .fold(None, |a: Option<f64>, r| Some(a.map_or(r, |a| a.min(r))));
+            (class, ratio)
+        }
+        _ => (Class::Invalid, None),
+    }
+}
+
+/// One cell of the lock-in map.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct MapCell {
+    pub x_index: usize,
+    pub y_index: usize,
+    pub class: Class,
+    pub min_speed_ratio: Option<f64>,
+}
+
+/// The lock-in map over two swept keys (x = first, y = second); with more keys, each cell
+/// shows the worst class and smallest ratio over the other keys' values.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LockInMap {
+    pub x: Vary,
+    pub y: Vary,
+    pub cells: Vec<MapCell>,
+}
+
+/// Builds the map over keys `kx`, `ky` of the grid.
+pub fn lock_in_map(vary: &[Vary], kx: usize, ky: usize, variants: &[Variant]) -> LockInMap {
+    let (nx, ny) = (vary[kx].steps, vary[ky].steps);
+    let mut cells: Vec<MapCell> = (0..nx * ny)
+        .map(|i| MapCell {
+            x_index: i % nx,
+            y_index: i / nx,
+            class: Class::Clear,
+            min_speed_ratio: None,
+        })
+        .collect();
+    let mut seen = vec![false; nx * ny];
+    for v in variants {
+        let idx = grid_indices(vary, v.index);
+        let c = idx[ky] * nx + idx[kx];
+        let (class, ratio) = summarise(&v.outcome);
+        let cell = &mut cells[c];
+        cell.class = if seen[c] {
+            cell.class.max(class)
+        } else {
+            class
+        };
+        seen[c] = true;
+        cell.min_speed_ratio = match (cell.min_speed_ratio, ratio) {
+            (Some(a), Some(b)) => Some(a.min(b)),
+            (a, b) => a.or(b),
+        };
+    }
+    LockInMap {
+        x: vary[kx].clone(),
+        y: vary[ky].clone(),
+        cells,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn parses_and_spaces_values() {
+        let v = Vary::parse("shell.elastic_modulus_gpa=28:36:5").unwrap();
+        assert_eq!(v.values(), vec![28.0, 30.0, 32.0, 34.0, 36.0]);
+        assert_eq!(Vary::parse("a=1:1:1").unwrap().values(), vec![1.0]);
+        assert!(Vary::parse("a=1:2").is_err());
+        assert!(Vary::parse("a=1:2:0").is_err());
+        assert!(Vary::parse("a=1:2:1").is_err());
+        assert!(Vary::parse("a=x:2:3").is_err());
+        assert!(Vary::parse("=1:2:3").is_err());
+        // Ends are exact even when the step is not representable.
+        let v = Vary::parse("k=0.1:0.7:7").unwrap().values();
+        assert_eq!(v[6], 0.7);
+    }
+
+    #[test]
+    fn grid_order_is_first_key_slowest() {
+        let vary = vec![
+            Vary::parse("a=0:1:2").unwrap(),
+            Vary::parse("b=10:30:3").unwrap(),
+        ];
+        assert_eq!(grid_size(&vary), Some(6));
+        let pts: Vec<Vec<f64>> = (0..6).map(|i| grid_point(&vary, i)).collect();
+        assert_eq!(pts[0], vec![0.0, 10.0]);
+        assert_eq!(pts[1], vec![0.0, 20.0]);
+        assert_eq!(pts[5], vec![1.0, 30.0]);
+        let big = vec![Vary::parse("a=0:1:2000").unwrap(); 2];
+        assert_eq!(grid_size(&big), None);
+    }
+}
