@@ -193,22 +193,41 @@ pub fn stage_model(beam: &BeamModel) -> StageModel {
     model
 }
 
+/// Quadrature data of one element for mode-shape integrals, computed once per stage.
+struct ElementSamples {
+    weight_m: Vec<f64>,
+    mass_kg_m: Vec<f64>,
+    shapes: Vec<[f64; 6]>,
+}
+
+fn element_samples(beam: &BeamModel) -> Vec<ElementSamples> {
+    beam.elements
+        .iter()
+        .zip(&beam.element_data)
+        .map(|(el, data)| {
+            let s = el.shape_samples(data);
+            ElementSamples {
+                mass_kg_m: s
+                    .s_m
+                    .iter()
+                    .map(|&z| data.shell_mass_kg_m(z) + data.lining_mass_kg_m(z))
+                    .collect(),
+                weight_m: s.weight_m,
+                shapes: s.displacement_shapes,
+            }
+        })
+        .collect()
+}
+
 /// Integrals int m w^2 dz (distributed + point masses) and int w^2 dz of a nodal dof vector
 /// over the exact element shapes.
-fn shape_integrals(beam: &BeamModel, u: &[f64]) -> (f64, f64) {
+fn shape_integrals(beam: &BeamModel, samples: &[ElementSamples], u: &[f64]) -> (f64, f64) {
     let mut m_w2 = 0.0;
     let mut w2 = 0.0;
-    for (e, (el, data)) in beam.elements.iter().zip(&beam.element_data).enumerate() {
+    for (e, el) in samples.iter().enumerate() {
         let ue = &u[4 * e..4 * e + 6];
-        let samples = el.shape_samples(data);
-        for ((s, wt), nw) in samples
-            .s_m
-            .iter()
-            .zip(&samples.weight_m)
-            .zip(&samples.displacement_shapes)
-        {
+        for ((wt, m), nw) in el.weight_m.iter().zip(&el.mass_kg_m).zip(&el.shapes) {
             let w: f64 = (0..6).map(|k| nw[k] * ue[k]).sum();
-            let m = data.shell_mass_kg_m(*s) + data.lining_mass_kg_m(*s);
             m_w2 += wt * m * w * w;
             w2 += wt * w * w;
         }
@@ -224,6 +243,7 @@ pub fn stage_modes(stage: &Stage, beam: &BeamModel, solution: &fem::Solution) ->
     let n_nodes = beam.z_m.len();
     let mut modes = Vec::with_capacity(solution.eigenvalues.len());
     let mut changes = Vec::new();
+    let samples = element_samples(beam);
     for (k, &lambda) in solution.eigenvalues.iter().enumerate() {
         let col = solution.vectors.column(k);
         let (mut peak, mut peak_abs) = (0.0f64, 0.0f64);
@@ -237,7 +257,7 @@ pub fn stage_modes(stage: &Stage, beam: &BeamModel, solution: &fem::Solution) ->
         let u: Vec<f64> = col.iter().map(|v| v * scale).collect();
         let displacement: Vec<f64> = (0..n_nodes).map(|i| u[4 * i]).collect();
         let rotation_per_m: Vec<f64> = (0..n_nodes).map(|i| u[4 * i + 1]).collect();
-        let (m_w2, w2) = shape_integrals(beam, &u);
+        let (m_w2, w2) = shape_integrals(beam, &samples, &u);
         changes.push(sign_changes(&displacement));
         modes.push(Mode {
             number: k + 1,
