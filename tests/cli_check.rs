@@ -79,3 +79,20 @@ fn generous_criterion_exits_0_with_ok() {
         .code(0)
         .stdout(predicate::str::contains(" ok"));
 }
+
+#[test]
+fn model_table_adds_the_model_plan_to_the_note() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(concat!(env!("CARGO_MANIFEST_DIR"), "/examples/wind_tunnel_model.toml"))
+        .arg("--out")
+        .arg(&out)
+        .assert()
+        .code(predicate::in_iter([0, 1]));
+    let html = std::fs::read_to_string(out.join("report.html")).unwrap();
+    assert!(html.contains("Aeroelastic model plan"));
+    assert!(html.contains("Remedies") || !html.contains("required damping"));
+}

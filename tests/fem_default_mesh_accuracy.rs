@@ -47,11 +47,30 @@ fn default_mesh_error_is_reported_per_mode() {
     // misses the 0.01 % promise.
     let case = demo_case();
     for stage in &case.stages {
-        let coarse = analyse_stage(&case, stage, ModalOptions { modes: 3, min_elements: None }).unwrap();
-        let fine = analyse_stage(&case, stage, ModalOptions { modes: 3, min_elements: Some(4000) }).unwrap();
+        let coarse = analyse_stage(
+            &case,
+            stage,
+            ModalOptions {
+                modes: 3,
+                min_elements: None,
+            },
+        )
+        .unwrap();
+        let fine = analyse_stage(
+            &case,
+            stage,
+            ModalOptions {
+                modes: 3,
+                min_elements: Some(4000),
+            },
+        )
+        .unwrap();
         for (a, b) in coarse.modes.iter().zip(&fine.modes) {
             let rel = (a.frequency_hz - b.frequency_hz).abs() / b.frequency_hz;
-            println!("{} mode {}: {} elements, rel error {rel:.2e}", stage.name, a.number, coarse.elements);
+            println!(
+                "{} mode {}: {} elements, rel error {rel:.2e}",
+                stage.name, a.number, coarse.elements
+            );
             assert!(rel < 1e-4);
         }
     }

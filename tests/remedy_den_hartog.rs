@@ -11,9 +11,14 @@ use stackwake::commands::check::{analyse, CheckOptions};
 use stackwake::input::{parse_case, DEMO_CASE_TOML};
 use stackwake::remedy::tmd;
 
+/// The demo without its own [remedy] tables, plus `extra`.
 fn demo_with(extra: &str) -> stackwake::case::Case {
+    let base = DEMO_CASE_TOML
+        .split("\n[remedy")
+        .next()
+        .expect("split yields at least one part");
     parse_case(
-        &format!("{DEMO_CASE_TOML}\n{extra}\n"),
+        &format!("{base}\n{extra}\n"),
         Path::new("."),
         "demo+",
     )

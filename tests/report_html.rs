@@ -56,7 +56,8 @@ fn html_is_well_formed_and_self_contained() {
         "5 Vortex-shedding verdicts",
         "6 Stage comparison",
         "7 Loads",
-        "8 Warnings",
+        "8 Remedies",
+        "9 Warnings",
     ] {
         assert!(html.contains(heading), "missing section {heading}");
     }

@@ -298,6 +298,7 @@ pub fn stage_note_files(
     staging: &mut Staging,
     results: &CheckResults,
     warnings: &[String],
+    model_plan_html: Option<String>,
     date: &str,
 ) -> Result<(), Error> {
     let input = ReportInput {
@@ -305,6 +306,8 @@ pub fn stage_note_files(
         stages: &results.stages,
         vortex: &results.vortex,
         warnings,
+        remedies: Some(&results.remedies),
+        model_plan_html: model_plan_html.as_deref(),
     };
     let plots = svg::all_plots(&input)?;
     for p in &plots {
@@ -315,6 +318,25 @@ pub fn stage_note_files(
     Ok(())
 }
 
+/// Every file `check` writes (their destinations are checked before the analysis).
+pub const CHECK_FILES: [&str; 15] = [
+    "modes.csv",
+    "mode_shapes.csv",
+    "sections.csv",
+    "vortex.csv",
+    "loads.csv",
+    "lock_in.csv",
+    "remedy.csv",
+    "shell.svg",
+    "modes.svg",
+    "wind_map.svg",
+    "response.svg",
+    "envelopes.svg",
+    "stages.svg",
+    "report.html",
+    "summary.json",
+];
+
 /// Runs `check` on a case file (or the demo) and writes every output to `out`.
 pub fn run(
     case_path: Option<&Path>,
@@ -323,11 +345,30 @@ pub fn run(
 ) -> Result<CommandReport, Error> {
     let case = super::load(case_path)?;
     let mut staging = Staging::begin(out)?;
+    staging.check_destinations(&CHECK_FILES)?;
     let results = analyse(case, options)?;
     stage_modal_files(&mut staging, &results.stages)?;
     stage_vortex_files(&mut staging, &results.vortex)?;
-    let warnings = warnings(&results);
-    stage_note_files(&mut staging, &results, &warnings, &note_date())?;
+    let mut warnings = warnings(&results);
+    // The case's [model] table adds the aeroelastic model plan to the note; a plan that
+    // cannot be made is a warning here (`stackwake scale` reports it as an error).
+    let model_plan_html = match results.case.model {
+        Some(_) => match super::scale::compute_plan(&results.case, None, options.min_elements) {
+            Ok(plan) => Some(crate::similitude::html::render_html(&plan)),
+            Err(e) => {
+                warnings.push(format!("aeroelastic model plan not made: {e}"));
+                None
+            }
+        },
+        None => None,
+    };
+    stage_note_files(
+        &mut staging,
+        &results,
+        &warnings,
+        model_plan_html,
+        &note_date(),
+    )?;
     stage_remedy_file(&mut staging, &results.remedies)?;
     let files = staging.commit()?;
     let mut stdout = format!("{}\n\n", results.case.title);

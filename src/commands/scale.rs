@@ -7,6 +7,7 @@
 //! `scale_check.csv` (FE frequencies of model and prototype), `scale_plan.json` (the whole
 //! plan); with `--measured`: `measured_prototype.csv` and `prototype_amplitude_vs_speed.svg`.
 
+use crate::case::Case;
 use std::path::Path;
 
 use serde::Serialize;
@@ -195,6 +196,31 @@ pub fn plan_text(plan: &ScalePlan) -> String {
     out
 }
 
+/// Designs the aeroelastic model of a case with a `[model]` table and runs the FE check of
+/// model against prototype (pure; no files).
+pub fn compute_plan(
+    case: &Case,
+    length_scale: Option<f64>,
+    min_elements: Option<usize>,
+) -> Result<similitude::ScalePlan, Error> {
+    let design = similitude::design(case, length_scale)?;
+    let model_case =
+        crate::input::parse_case(&design.model.toml, Path::new("."), "model_case.toml")
+            .map_err(|source| Error::ModelCase { source })?;
+    let modal = ModalOptions {
+        modes: case.vortex.modes,
+        min_elements,
+    };
+    let prototype_modes = analyse_case(case, modal)?;
+    let model_modes = analyse_case(&model_case, modal)?;
+    Ok(similitude::plan(
+        case,
+        design,
+        &prototype_modes,
+        &model_modes,
+    ))
+}
+
 /// Runs `scale` on a case file with a `[model]` table and writes its outputs to `out`.
 pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<CommandReport, Error> {
     let case = super::load(Some(case_path))?;
@@ -202,18 +228,8 @@ pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<Comma
         Some(p) => Some(crate::input::load_measured(p)?),
         None => None,
     };
-    let design = similitude::design(&case, options.length_scale)?;
-    let model_case =
-        crate::input::parse_case(&design.model.toml, Path::new("."), "model_case.toml")
-            .map_err(|source| Error::ModelCase { source })?;
     let mut staging = Staging::begin(out)?;
-    let modal = ModalOptions {
-        modes: case.vortex.modes,
-        min_elements: options.min_elements,
-    };
-    let prototype_modes = analyse_case(&case, modal)?;
-    let model_modes = analyse_case(&model_case, modal)?;
-    let plan = similitude::plan(&case, design, &prototype_modes, &model_modes);
+    let plan = compute_plan(&case, options.length_scale, options.min_elements)?;
 
     let scale_rows: Vec<ScaleCsvRow> = plan
         .factor_rows

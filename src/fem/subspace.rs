@@ -234,9 +234,9 @@ pub fn lowest_modes_from(
     let mut previous: Vec<f64> = vec![f64::INFINITY; p];
     let guard = n + 1;
     let mut iterations = 0;
+    band_times_block(&model.mass, &x, &mut mx);
     loop {
         iterations += 1;
-        band_times_block(&model.mass, &x, &mut mx);
         apply_inverse_stiffness_block(model, &mx, &mut y);
         band_times_block(&model.mass, &y, &mut my);
         let projected = |y: &Block, mx: &Block, my: &Block| {
@@ -262,6 +262,8 @@ pub fn lowest_modes_from(
             });
         }
         y.times(&q, &mut x);
+        // M X for the next iteration is (M Y) Q: a p x p product instead of a banded one.
+        my.times(&q, &mut mx);
         let converged = (0..n).all(|i| ((vals[i] - previous[i]) / vals[i]).abs() < TOLERANCE)
             && ((vals[guard - 1] - previous[guard - 1]) / vals[guard - 1]).abs() < 1e-6;
         previous = vals;

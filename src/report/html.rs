@@ -638,6 +638,54 @@ fn loads_section(out: &mut String, input: &ReportInput) {
     );
 }
 
+/// The remedy table: each remedy next to the unmitigated result of the same stage and mode.
+fn remedy_section(o: &mut String, remedies: &crate::remedy::RemedyResults) {
+    o.push_str(
+        "<p>Each remedy is re-checked with the same EN 1991-1-4 Annex E functions as the \
+         unmitigated stack; \"before\" is the unmitigated result. The tuned-mass-damper \
+         damping is an equal-peak (Den Hartog) idealisation; the strake factor on c_lat is user \
+         input (the standard gives none).</p>\n<table>\n<thead><tr><th>stage</th><th>mode</th>\
+         <th>remedy</th><th>log decrement</th><th>Scruton</th><th>tip before (m)</th>\
+         <th>tip after (m)</th><th>stress before (MPa)</th><th>stress after (MPa)</th>\
+         <th>verdict before</th><th>verdict after</th></tr></thead>\n<tbody>\n",
+    );
+    let num = |v: Option<f64>, scale: f64, digits: usize| {
+        v.map_or_else(|| "-".to_string(), |x| format!("{:.digits$}", x * scale))
+    };
+    let short = |v: &str| v.split(':').next().unwrap_or(v).to_string();
+    let rows = remedies.rows();
+    for r in &rows {
+        let _ = writeln!(
+            o,
+            "<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td>\
+             <td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
+            html_escape(&r.stage),
+            r.mode,
+            html_escape(&r.remedy),
+            num(r.log_decrement, 1.0, 4),
+            num(r.scruton, 1.0, 1),
+            num(r.tip_amplitude_before_m, 1.0, 4),
+            num(r.tip_amplitude_after_m, 1.0, 4),
+            num(r.max_stress_before_pa, 1e-6, 2),
+            num(r.max_stress_after_pa, 1e-6, 2),
+            html_escape(&short(&r.verdict_before)),
+            html_escape(&short(&r.verdict_after)),
+        );
+    }
+    o.push_str("</tbody>\n</table>\n<ul>\n");
+    for r in rows.iter().filter(|r| !r.note.is_empty()) {
+        let _ = writeln!(
+            o,
+            "<li>{} mode {} ({}): {}</li>",
+            html_escape(&r.stage),
+            r.mode,
+            html_escape(&r.remedy),
+            html_escape(&r.note)
+        );
+    }
+    o.push_str("</ul>\n");
+}
+
 /// Renders the design note. `date` is printed as given (ISO date), so tests can fix it.
 pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
     let plot = |file: &str| plots.iter().position(|p| p.file == file);
@@ -684,7 +732,24 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
     o.push_str("</section>\n<section class=\"major\">\n<h2>7 Loads</h2>\n");
     loads_section(&mut o, input);
     put(&mut o, "envelopes.svg");
-    o.push_str("</section>\n<h2>8 Warnings</h2>\n");
+    o.push_str("</section>\n");
+    let mut next = 8;
+    if let Some(r) = input.remedies.filter(|r| !r.is_empty()) {
+        let _ = writeln!(o, "<section class=\"major\">\n<h2>{next} Remedies</h2>");
+        remedy_section(&mut o, r);
+        o.push_str("</section>\n");
+        next += 1;
+    }
+    if let Some(fragment) = input.model_plan_html {
+        let _ = writeln!(
+            o,
+            "<section class=\"major\">\n<h2>{next} Aeroelastic model plan</h2>"
+        );
+        o.push_str(fragment);
+        o.push_str("</section>\n");
+        next += 1;
+    }
+    let _ = writeln!(o, "<h2>{next} Warnings</h2>");
     if input.warnings.is_empty() {
         o.push_str("<p>None.</p>\n");
     } else {

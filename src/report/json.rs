@@ -21,6 +21,8 @@ pub struct Summary<'a> {
     pub case: &'a Case,
     pub stages: Vec<StageSummary<'a>>,
     pub vortex: &'a VortexResults,
+    /// Remedy re-checks (empty when none were computed).
+    pub remedies: Vec<crate::remedy::RemedyRow>,
     pub warnings: &'a [String],
 }
 
@@ -73,6 +75,7 @@ pub fn summary<'a>(input: &ReportInput<'a>) -> Summary<'a> {
             })
             .collect(),
         vortex: input.vortex,
+        remedies: input.remedies.map(|r| r.rows()).unwrap_or_default(),
         warnings: input.warnings,
     }
 }

@@ -27,6 +27,10 @@ pub struct ReportInput<'a> {
     pub stages: &'a [StageModes],
     pub vortex: &'a VortexResults,
     pub warnings: &'a [String],
+    /// Remedies re-checked next to the unmitigated results, when any were computed.
+    pub remedies: Option<&'a crate::remedy::RemedyResults>,
+    /// The aeroelastic model plan (escaped HTML fragment), when the case has `[model]`.
+    pub model_plan_html: Option<&'a str>,
 }
 
 /// The cautions printed in the design note and carried in summary.json.
