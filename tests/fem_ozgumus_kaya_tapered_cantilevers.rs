@@ -1,6 +1,6 @@
 //! Linearly tapered Euler-Bernoulli cantilevers, modes 1-3.
 //! Source: Ozdemir Ozgumus & Kaya, Int. J. Mech. Mater. Eng. (2015), table 1, with the
-//! values reproduced with scipy (references.md): C_n = omega_n L^2 sqrt(m0 / EI0), base
+//! values reproduced with scipy (data/reference/README.md): C_n = omega_n L^2 sqrt(m0 / EI0), base
 //! properties, taper alpha = D_top / D_base.
 //! Models: a tube with constant d/D (t = 0.1 D: I ~ D^4, A ~ D^2, the solid-cone case) and a
 //! thin tube of constant wall (t = 1e-6 D_top: I ~ D^3, A ~ D within ~1e-6).

@@ -1,6 +1,6 @@
 //! Timoshenko / Euler-Bernoulli frequency ratios of a uniform thin tube, t/D = 0.02,
 //! nu = 0.2, Cowper's shear coefficient, rotary inertia included.
-//! Source: references.md (computed with scipy by a shooting method): H/D = 10: 0.985, 0.907,
+//! Source: data/reference/README.md (computed with scipy by a shooting method): H/D = 10: 0.985, 0.907,
 //! 0.816; H/D = 20: 0.996, 0.974, 0.941 (three digits: compared to +-0.0015).
 
 mod common;

@@ -17,17 +17,12 @@ fn demo_with(extra: &str) -> stackwake::case::Case {
         .split("\n[remedy")
         .next()
         .expect("split yields at least one part");
-    parse_case(
-        &format!("{base}\n{extra}\n"),
-        Path::new("."),
-        "demo+",
-    )
-    .expect("valid")
+    parse_case(&format!("{base}\n{extra}\n"), Path::new("."), "demo+").expect("valid")
 }
 
 #[test]
 fn den_hartog_values_for_mu_0_02() {
-    // Den Hartog (from memory), values as listed in references.md.
+    // Den Hartog (from memory), values as listed in data/reference/README.md.
     assert!((tmd::den_hartog_frequency_ratio(0.02) - 0.98039).abs() < 5e-6);
     assert!((tmd::den_hartog_damping_ratio(0.02) - 0.08407).abs() < 5e-6);
 }

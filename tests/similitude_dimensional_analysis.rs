@@ -1,5 +1,5 @@
 //! Closed-form scale relations of the aeroelastic model (scale k_x = prototype / model) on
-//! invented inputs. Source of every relation: references.md: published dimensional analysis
+//! invented inputs. Source of every relation: data/reference/README.md: published dimensional analysis
 //! ("Aeroelastic model similitude": k_h = k_l / k_rho with the same air,
 //! k_v = sqrt(k_E k_h / k_l), k_f = k_v / k_l, displacement k_l, strain 1, stress k_E,
 //! lining mass per area k_l, log decrement identical, Re not matched: k_l k_v). The mass per
@@ -33,7 +33,7 @@ fn spec(e_pa: f64, rho: f64, k_l: f64) -> ModelSpec {
 }
 
 proptest! {
-    /// references.md: published dimensional analysis, same air (k_rho_air = 1).
+    /// data/reference/README.md: published dimensional analysis, same air (k_rho_air = 1).
     #[test]
     fn published_relations_hold(k_l in 1.0f64..1000.0, k_rho in 0.2f64..20.0, k_e in 0.5f64..100.0) {
         let k = ScaleFactors::new(k_l, k_rho, k_e);
@@ -61,7 +61,7 @@ proptest! {
 
 /// Worked numbers (invented): concrete 2500 kg/m3, 32 GPa; model plastic 1250 kg/m3,
 /// 3.2 GPa; k_l = 100 -> k_rho = 2, k_E = 10, k_h = 50, k_v = sqrt(10 x 50 / 100) = sqrt(5),
-/// k_f = sqrt(5) / 100 (references.md: published dimensional analysis).
+/// k_f = sqrt(5) / 100 (data/reference/README.md: published dimensional analysis).
 #[test]
 fn worked_factors() {
     let k = ScaleFactors::new(100.0, 2500.0 / 1250.0, 32.0 / 3.2);
@@ -74,7 +74,7 @@ fn worked_factors() {
 
 /// The model's own masses, computed from its case file, scale as the similitude requires:
 /// shell + lining mass per length k_l^2 in the thin-wall limit, point masses k_l^3 exactly,
-/// lining per area k_l exactly, lining per length k_l^2 exactly (references.md: published
+/// lining per area k_l exactly, lining per length k_l^2 exactly (data/reference/README.md: published
 /// dimensional analysis).
 #[test]
 fn model_masses_follow_the_mass_ratio() {

@@ -1,5 +1,5 @@
 //! The FE check of a scaled model against its prototype, f_prototype / (f_model k_f) - 1.
-//! Sources: the scale relations are references.md: published dimensional analysis
+//! Sources: the scale relations are data/reference/README.md: published dimensional analysis
 //! ("Aeroelastic model similitude"); the claims checked here follow from them: the
 //! distorted-thickness similitude is exact for thin walls in bending (Euler-Bernoulli,
 //! t/D -> 0), and exact for any wall and beam theory when the model is geometrically similar

@@ -1,5 +1,5 @@
 //! In-line groups of stacks, EN 1991-1-4 Annex E (E.1.5.2.6/7, expressions (E.10)-(E.11), from
-//! memory; see /work/shared/references.md): c_lat = 1.5 c_lat(single) for 1 <= a/b <= 10,
+//! memory; see data/reference/README.md): c_lat = 1.5 c_lat(single) for 1 <= a/b <= 10,
 //! single for a/b >= 15, linear between; St = 0.1 + 0.085 log10(a/b) for 1 <= a/b <= 9, 0.18
 //! beyond.
 
@@ -44,7 +44,7 @@ fn spacing_below_one_diameter_warns_and_clamps() {
 
 #[test]
 fn group_changes_st_and_c_lat_in_the_check() {
-    // a/b = 5 on the references.md worked tube: St 0.1594, c_lat 1.5 x 0.2.
+    // a/b = 5 on the data/reference/README.md worked tube: St 0.1594, c_lat 1.5 x 0.2.
     let model = common::uniform_tube(80.0, 4.0, 0.3, 12000.0, 40);
     let mode = common::parabola_mode(&model, 1, 0.5, 12000.0);
     let mut case = common::case(

@@ -1,7 +1,7 @@
 //! Table lookups of EN 1991-1-4 Annex E at their breakpoints and between, as listed in
-//! /work/shared/references.md: Figure E.2 (c_lat,0, from memory; linear in log10 Re is our
+//! data/reference/README.md: Figure E.2 (c_lat,0, from memory; linear in log10 Re is our
 //! reading of the chart), Table E.3 (c_lat vs speed ratio), Table E.4 (L_j/b vs y/b), Table E.5
-//! (K, Kw of a cantilever; E.3-E.5 agree with the TU Munich notebooks per references.md),
+//! (K, Kw of a cantilever; E.3-E.5 agree with the TU Munich notebooks per data/reference/README.md),
 //! Table E.6 (approach 2 constants, from memory; log10 Re interpolation is our choice).
 
 mod wind_common;

@@ -1,4 +1,4 @@
-//! The hand-derived approach 1 / approach 2 worked check of /work/shared/references.md
+//! The hand-derived approach 1 / approach 2 worked check of data/reference/README.md
 //! ("Worked check", derived by hand from the EN 1991-1-4 Annex E formulas listed there; clause
 //! numbers and several constants from memory): uniform 80 m tube, b = 4 m, n1 = 0.5 Hz,
 //! delta_s = 0.03, m_e = 12000 kg/m, rho = 1.25 kg/m3, nu = 15e-6 m2/s, v_m = 30 m/s,
@@ -24,7 +24,7 @@ const TOL_3: f64 = 5e-4;
 
 #[test]
 fn approach1_with_table_k_reproduces_0_0535() {
-    // references.md worked check, K = 0.13 (Table E.5), Kw from Table E.5 formula, capped 0.6.
+    // data/reference/README.md worked check, K = 0.13 (Table E.5), Kw from Table E.5 formula, capped 0.6.
     let p = approach1::Approach1Params {
         diameter_m: 4.0,
         strouhal: 0.18,
@@ -67,13 +67,13 @@ fn full_pipeline_on_the_table_mode_shape() {
     assert!((a1.y_max_m / 0.053_498 - 5.0 / (12.0 * PI) / 0.13).abs() < 1e-4);
     assert!((a1.tip_amplitude_m - a1.y_max_m).abs() < 1e-15);
 
-    // approach 2 does not use K: 0.0334 m (references.md worked check)
+    // approach 2 does not use K: 0.0334 m (data/reference/README.md worked check)
     let a2 = r.approach2.as_ref().unwrap();
     assert_eq!((a2.c_c, a2.k_a), (0.01, 1.0));
     assert!((a2.y_max_m - 0.0334).abs() < 5e-5, "y2 = {}", a2.y_max_m);
 
     // Load cycles (EN 1991-1-4 E.1.5.2.6, from memory) with a design life of 50 years (our
-    // choice; references.md states none): N = 2 T n eps0 (v_crit/v0)^2 exp(-(v_crit/v0)^2),
+    // choice; data/reference/README.md states none): N = 2 T n eps0 (v_crit/v0)^2 exp(-(v_crit/v0)^2),
     // v0 = 6 m/s -> 5.3346e7 (approach 1), 2.6673e7 (approach 2) (hand/Python calculation).
     assert!((a1.fatigue_cycles / 5.334_622e7 - 1.0).abs() < 1e-6);
     assert!((a2.fatigue_cycles / 2.667_311e7 - 1.0).abs() < 1e-6);
@@ -89,7 +89,7 @@ fn full_pipeline_on_the_table_mode_shape() {
 
 #[test]
 fn approach2_alone_reproduces_0_0334() {
-    // references.md worked check, approach 2 (E.1.5.3, from memory)
+    // data/reference/README.md worked check, approach 2 (E.1.5.3, from memory)
     let a = approach2::amplitude(&approach2::Approach2Params {
         diameter_m: 4.0,
         strouhal: 0.18,

@@ -126,7 +126,7 @@ mod tests {
 
     #[test]
     fn critical_speed_of_the_references_worked_check() {
-        // references.md worked check: b = 4 m, n1 = 0.5 Hz, St = 0.18 -> 11.111 m/s,
+        // data/reference/README.md worked check: b = 4 m, n1 = 0.5 Hz, St = 0.18 -> 11.111 m/s,
         // Re = 2.963e6 with nu = 1.5e-5 (EN 1991-1-4 E.1.3.1 and E.1.3.4).
         let v = critical_speed_m_s(4.0, 0.5, 0.18);
         assert!((v - 11.1111).abs() < 1e-3);

@@ -6,7 +6,7 @@
 //! K  = sum int_lj |Phi| ds / (4 pi sum int_lj Phi^2 ds)                          (E.9)
 //! Units: m, m/s; everything else dimensionless.
 //!
-//! Sources and confidence (see /work/shared/references.md): Tables E.3, E.4, E.5 and
+//! Sources and confidence (see data/reference/README.md): Tables E.3, E.4, E.5 and
 //! expressions (E.7)-(E.9) agree with the TU Munich Structural Wind Engineering notebooks
 //! (2020-21); Figure E.2 (c_lat,0 of a circular section) is from memory and is a chart on a
 //! log-Re axis: interpolating linearly in log10(Re) between its corner points is our reading.

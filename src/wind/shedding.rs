@@ -23,7 +23,7 @@ use crate::wind::profile;
 pub const STROUHAL_CIRCULAR_EN: f64 = 0.18;
 
 /// E.1.2 screening factor: no check when v_crit > 1.25 v_m (EN 1991-1-4 E.1.2, verified
-/// against the TU Munich notebooks per references.md).
+/// against the TU Munich notebooks per data/reference/README.md).
 pub const SCREENING_FACTOR: f64 = 1.25;
 
 /// Critical wind speed v_crit = b n / St, m/s (EN 1991-1-4 E.1.3.1).
@@ -117,7 +117,7 @@ mod tests {
 
     #[test]
     fn formulas_match_worked_example() {
-        // references.md worked check (hand-derived from EN 1991-1-4 E.1.3): b = 4, n = 0.5,
+        // data/reference/README.md worked check (hand-derived from EN 1991-1-4 E.1.3): b = 4, n = 0.5,
         // St = 0.18 -> v_crit = 11.111; Re = 2.963e6; Sc = 36.0
         let v = critical_speed_m_s(4.0, 0.5, 0.18);
         assert!((v - 11.111).abs() < 5e-4);
