@@ -26,7 +26,7 @@ impl SymBand {
         &self.rows[i]
     }
 
-    /// A[i][j] (any order of i, j).
+    /// `A[i][j]` (any order of i, j).
     pub fn get(&self, i: usize, j: usize) -> f64 {
         let (lo, hi) = if i <= j { (i, j) } else { (j, i) };
         if hi - lo > HALF_BAND {
@@ -36,7 +36,7 @@ impl SymBand {
         }
     }
 
-    /// Adds v to A[i][j] and A[j][i] (one stored entry), |i - j| <= HALF_BAND.
+    /// Adds v to `A[i][j]` and `A[j][i]` (one stored entry), `|i - j| <= HALF_BAND`.
     #[track_caller]
     pub fn add(&mut self, i: usize, j: usize, v: f64) {
         let (lo, hi) = if i <= j { (i, j) } else { (j, i) };

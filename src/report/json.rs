@@ -15,7 +15,7 @@ use crate::wind::VortexResults;
 #[derive(Debug, Serialize)]
 pub struct Summary<'a> {
     pub title: &'a str,
-    /// "stackwake <version>".
+    /// `stackwake` and its version.
     pub generator: String,
     pub cautions: &'static [&'static str],
     pub case: &'a Case,
