@@ -204,7 +204,7 @@ fn html_fragment_escapes_the_title_and_shows_the_check() {
     );
     case.title = "Stack <A> & \"B\"".into();
     let (plan, _, _) = run(&case);
-    let html = stackwake::similitude::html::render_html(&plan);
+    let html = stackwake::report::scale_html::render_html(&plan);
     assert!(html.contains("Stack &lt;A&gt; &amp; &quot;B&quot;"));
     assert!(!html.contains("<A>"));
     assert!(html.contains("f_prototype / (f_model k_f) - 1"));

@@ -354,7 +354,7 @@ pub fn run(
     // cannot be made is a warning here (`stackwake scale` reports it as an error).
     let model_plan_html = match results.case.model {
         Some(_) => match super::scale::compute_plan(&results.case, None, options.min_elements) {
-            Ok(plan) => Some(crate::similitude::html::render_html(&plan)),
+            Ok(plan) => Some(crate::report::scale_html::render_html(&plan)),
             Err(e) => {
                 warnings.push(format!("aeroelastic model plan not made: {e}"));
                 None

@@ -5,6 +5,7 @@
 pub mod csv;
 pub mod html;
 pub mod json;
+pub mod scale_html;
 pub mod scale_plot;
 pub mod staging;
 pub mod svg;

@@ -6,6 +6,7 @@
 //! carry a text label (class initial and the smallest speed ratio v_crit / v_m).
 //! Units: the swept keys' own units; speed ratios dimensionless.
 
+pub use super::html::html_escape as escape;
 use std::fmt::Write as _;
 
 use super::csv::safe_text;
@@ -79,15 +80,6 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
         file: "sweep.csv".into(),
         message: e.to_string(),
     })
-}
-
-/// Escapes text for SVG.
-pub fn escape(s: &str) -> String {
-    s.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
-        .replace('"', "&quot;")
-        .replace('\'', "&#39;")
 }
 
 fn fill(class: Class) -> &'static str {

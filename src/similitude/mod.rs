@@ -14,7 +14,6 @@
 pub mod blockage;
 pub mod consistency;
 pub mod factors;
-pub mod html;
 pub mod measured;
 pub mod model_case;
 pub mod reynolds;

@@ -2,23 +2,8 @@
 //! user text is escaped; numbers are formatted here so the note needs no knowledge of the
 //! plan's internals.
 
-use super::ScalePlan;
-
-/// Escapes text for HTML element content and attribute values.
-pub fn escape(s: &str) -> String {
-    let mut out = String::with_capacity(s.len());
-    for c in s.chars() {
-        match c {
-            '&' => out.push_str("&amp;"),
-            '<' => out.push_str("&lt;"),
-            '>' => out.push_str("&gt;"),
-            '"' => out.push_str("&quot;"),
-            '\'' => out.push_str("&#39;"),
-            _ => out.push(c),
-        }
-    }
-    out
-}
+use super::html::html_escape as escape;
+use crate::similitude::ScalePlan;
 
 fn table(head: &[&str], rows: &[Vec<String>]) -> String {
     let mut s = String::from("<table>\n<thead><tr>");
