@@ -233,6 +233,23 @@ pub fn analysis(data: &[u8]) {
                     assert!(m.displacement.iter().all(|w| w.is_finite()));
                 }
             }
+            // The vortex checks of any analysable stack finish with finite numbers.
+            let vortex = stackwake::wind::check_all(&case, &stages);
+            for row in vortex.vortex_rows() {
+                assert!(row.critical_speed_m_s.is_finite() && row.critical_speed_m_s > 0.0);
+                assert!(row.scruton.is_finite() && row.reynolds.is_finite());
+                for v in [row.tip_amplitude_m, row.base_moment_nm, row.fatigue_cycles]
+                    .into_iter()
+                    .flatten()
+                {
+                    assert!(
+                        v.is_finite(),
+                        "stage {} mode {}: non-finite result\n{text}",
+                        row.stage,
+                        row.mode
+                    );
+                }
+            }
         }
         Err(e) => {
             let msg = e.to_string();

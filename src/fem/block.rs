@@ -75,6 +75,37 @@ impl Block {
         DMatrix::from_row_slice(p, q, &acc)
     }
 
+    /// (A^T B, A^T C) in one pass over the rows (B and C of the same width).
+    #[track_caller]
+    pub fn gram_pair(&self, b: &Block, c: &Block) -> (DMatrix<f64>, DMatrix<f64>) {
+        assert!(self.dofs == b.dofs && self.dofs == c.dofs && b.width == c.width);
+        let (p, q) = (self.width, b.width);
+        let mut ab = vec![0.0; p * q];
+        let mut ac = vec![0.0; p * q];
+        for i in 0..self.dofs {
+            let arow = self.row(i);
+            let brow = b.row(i);
+            let crow = c.row(i);
+            for (r, &av) in arow.iter().enumerate() {
+                if av == 0.0 {
+                    continue;
+                }
+                let db = &mut ab[r * q..(r + 1) * q];
+                let dc = &mut ac[r * q..(r + 1) * q];
+                for ((x, y), (bv, cv)) in
+                    db.iter_mut().zip(dc.iter_mut()).zip(brow.iter().zip(crow))
+                {
+                    *x += av * bv;
+                    *y += av * cv;
+                }
+            }
+        }
+        (
+            DMatrix::from_row_slice(p, q, &ab),
+            DMatrix::from_row_slice(p, q, &ac),
+        )
+    }
+
     /// out = self * Q (Q is width x k).
     #[track_caller]
     pub fn times(&self, q: &DMatrix<f64>, out: &mut Block) {
@@ -101,33 +132,27 @@ impl Block {
     }
 }
 
-/// y = A x for a symmetric band matrix and a block.
+/// y = A x for a symmetric band matrix and a block. Each output row gathers its at most
+/// 2 HALF_BAND + 1 neighbours, so it is written once (no scattered updates).
 #[track_caller]
 pub fn band_times_block(a: &SymBand, x: &Block, y: &mut Block) {
     let n = a.dim();
     assert!(x.dofs == n && y.dofs == n && x.width == y.width);
     let p = x.width;
-    y.data.fill(0.0);
-    for i in 0..n {
-        let row = a.row(i);
-        let xi = &x.data[i * p..(i + 1) * p];
-        let (head, tail) = y.data.split_at_mut((i + 1) * p);
-        let yi = &mut head[i * p..];
-        for (yv, xv) in yi.iter_mut().zip(xi) {
-            *yv += row[0] * xv;
-        }
-        for k in 1..=HALF_BAND.min(n - 1 - i) {
-            let v = row[k];
+    for (i, yi) in y.data.chunks_exact_mut(p).enumerate() {
+        yi.fill(0.0);
+        let lo = i.saturating_sub(HALF_BAND);
+        let hi = (i + HALF_BAND).min(n - 1);
+        for j in lo..=hi {
+            let v = if j >= i {
+                a.row(i)[j - i]
+            } else {
+                a.row(j)[i - j]
+            };
             if v == 0.0 {
                 continue;
             }
-            let j = i + k;
-            let xj = &x.data[j * p..(j + 1) * p];
-            for (yv, xv) in yi.iter_mut().zip(xj) {
-                *yv += v * xv;
-            }
-            let yj = &mut tail[(k - 1) * p..k * p];
-            for (yv, xv) in yj.iter_mut().zip(xi) {
+            for (yv, xv) in yi.iter_mut().zip(&x.data[j * p..(j + 1) * p]) {
                 *yv += v * xv;
             }
         }

@@ -240,8 +240,7 @@ pub fn lowest_modes_from(
         apply_inverse_stiffness_block(model, &mx, &mut y);
         band_times_block(&model.mass, &y, &mut my);
         let projected = |y: &Block, mx: &Block, my: &Block| {
-            let kr = y.gram(mx);
-            let mr = y.gram(my);
+            let (kr, mr) = y.gram_pair(mx, my);
             projected_eigen(0.5 * (&kr + kr.transpose()), 0.5 * (&mr + mr.transpose()))
         };
         // The plain projection is enough for ordinary stacks; only when the spectrum spans so
