@@ -1,7 +1,7 @@
 //! GB 50009-2012 section 8.5.3 and Appendix H.1: across-wind resonance of circular sections.
 //! A comparison method beside EN 1991-1-4 Annex E. Expression (H.1.1-1), the H1 expression
 //! (H.1.1-2), the damping ratios of H.1.1 and Table H.1.1 (towers and chimneys, modes 1-4)
-//! were checked against a public transcription of the 2012 text (Appendix H); the rest of
+//! were checked against a published copy of the 2012 text (Appendix H); the rest of
 //! section 8.5 (St, Re factor, regime limits, the 2/3-height rule) is from memory.
 //!
 //! - St = 0.2; v_cr,j = D / (T_j St); D at 2/3 of the height for a wall slope <= 2 %.
@@ -42,7 +42,7 @@ pub const LOAD_DIVISOR_SI: f64 = 12.8;
 pub const MAX_SLOPE_FOR_TWO_THIRDS_RULE: f64 = 0.02;
 
 /// lambda_j of Table H.1.1, towers and chimneys, modes 1-4, at H1/H = 0, 0.1, ..., 1.0
-/// (GB 50009-2012 Table H.1.1, checked against a public transcription of the code). Tests
+/// (GB 50009-2012 Table H.1.1, checked against a published copy of the code). Tests
 /// also check that the uniform Euler-Bernoulli cantilever integral reproduces modes 1-3.
 #[rustfmt::skip]
 pub const LAMBDA_TOWERS: [[f64; 11]; 4] = [
