@@ -171,19 +171,7 @@ pub fn plan_text(plan: &ScalePlan) -> String {
         ],
         &rows,
     ));
-    let rows: Vec<Vec<String>> = plan
-        .consistency
-        .iter()
-        .map(|r| {
-            vec![
-                r.stage.clone(),
-                r.mode.to_string(),
-                format!("{:.5}", r.prototype_frequency_hz),
-                format!("{:.4}", r.model_frequency_hz),
-                format!("{:+.3} %", 100.0 * r.deviation),
-            ]
-        })
-        .collect();
+    let rows: Vec<Vec<String>> = plan.consistency.iter().map(|r| r.cells()).collect();
     out.push_str("\ncheck of the model by computation, f_prototype / (f_model k_f) - 1:\n");
     out.push_str(&table::render(
         &["stage", "mode", "prototype_hz", "model_hz", "deviation"],

@@ -167,19 +167,7 @@ pub fn render_html(plan: &ScalePlan) -> String {
         s.push_str(&format!("<li>{}</li>\n", escape(c)));
     }
     s.push_str("</ul>\n<h3>Check of the model by computation</h3>\n");
-    let rows: Vec<Vec<String>> = plan
-        .consistency
-        .iter()
-        .map(|r| {
-            vec![
-                r.stage.clone(),
-                r.mode.to_string(),
-                format!("{:.5}", r.prototype_frequency_hz),
-                format!("{:.4}", r.model_frequency_hz),
-                format!("{:+.3} %", 100.0 * r.deviation),
-            ]
-        })
-        .collect();
+    let rows: Vec<Vec<String>> = plan.consistency.iter().map(|r| r.cells()).collect();
     s.push_str(&table(
         &[
             "stage",

@@ -25,6 +25,19 @@ pub struct ConsistencyRow {
     pub deviation: f64,
 }
 
+impl ConsistencyRow {
+    /// The row as display cells: stage, mode, prototype Hz, model Hz, deviation in %.
+    pub fn cells(&self) -> Vec<String> {
+        vec![
+            self.stage.clone(),
+            self.mode.to_string(),
+            format!("{:.5}", self.prototype_frequency_hz),
+            format!("{:.4}", self.model_frequency_hz),
+            format!("{:+.3} %", 100.0 * self.deviation),
+        ]
+    }
+}
+
 /// Pairs the stages by position (the model case keeps the prototype's stage order and
 /// names) and the modes by number.
 pub fn compare(prototype: &[StageModes], model: &[StageModes], k_f: f64) -> Vec<ConsistencyRow> {
