@@ -9,8 +9,6 @@
 
 use std::path::Path;
 
-use csv::{ReaderBuilder, Trim};
-
 use super::issue::{suggestion, ValidationIssue};
 use super::{read_limited, InputError, ReadFailure};
 use crate::similitude::measured::ModelMeasurement;
@@ -43,24 +41,7 @@ pub fn parse_measured_csv(
     label: &str,
 ) -> Result<Vec<ModelMeasurement>, Vec<ValidationIssue>> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
-    let header_line = text
-        .lines()
-        .find(|l| !l.trim().is_empty() && !l.trim_start().starts_with('#'))
-        .unwrap_or("");
-    let delimiter = if !header_line.contains(',') && header_line.contains(';') {
-        b';'
-    } else if !header_line.contains(',') && header_line.contains('\t') {
-        b'\t'
-    } else {
-        b','
-    };
-    let mut reader = ReaderBuilder::new()
-        .delimiter(delimiter)
-        .trim(Trim::All)
-        .flexible(true)
-        .comment(Some(b'#'))
-        .has_headers(true)
-        .from_reader(text.as_bytes());
+    let (mut reader, _) = super::stations_csv::spreadsheet_reader(text);
     let header_place = format!("{label} header");
     let headers: Vec<String> = match reader.headers() {
         Ok(h) => h.iter().map(str::to_string).collect(),

@@ -31,8 +31,11 @@ pub struct CsvStations {
     pub rows: Vec<CsvStation>,
 }
 
-/// Parses the text of a stations CSV; `label` names the file in messages.
-pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<ValidationIssue>> {
+/// A CSV reader for tables pasted from spreadsheets: a UTF-8 BOM is dropped, `;` or tab is
+/// taken as the separator when the header has no comma (so "0,45" can be diagnosed as a comma
+/// decimal), cells are trimmed, `#` lines are comments and short rows are allowed.
+/// Returns the reader and the separator byte it chose.
+pub fn spreadsheet_reader(text: &str) -> (csv::Reader<&[u8]>, u8) {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let header_line = text
         .lines()
@@ -45,13 +48,20 @@ pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<Va
     } else {
         b','
     };
-    let mut reader = ReaderBuilder::new()
+    let reader = ReaderBuilder::new()
         .delimiter(delimiter)
         .trim(Trim::All)
         .flexible(true)
         .comment(Some(b'#'))
         .has_headers(true)
         .from_reader(text.as_bytes());
+    (reader, delimiter)
+}
+
+/// Parses the text of a stations CSV; `label` names the file in messages.
+pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<ValidationIssue>> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    let (mut reader, delimiter) = spreadsheet_reader(text);
 
     let mut issues = Vec::new();
     let header_place = format!("{label} header");
