@@ -116,9 +116,15 @@ pub struct Element {
     bubbles: [[f64; 3]; 2],
     /// Inverse of the 2x2 bubble stiffness block (symmetric: [b11, b12, b22]).
     pub bubble_flexibility: [f64; 3],
-    /// Element stiffness (w_a, theta_a, q1, q2, w_b, theta_b); bubbles uncoupled from nodes.
+}
+
+/// The element's 6x6 matrices over (w_a, theta_a, q1, q2, w_b, theta_b); assembled into the
+/// band and then dropped (the model keeps only [`Element`], which is much smaller).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ElementMatrices {
+    /// Element stiffness; bubbles uncoupled from nodes.
     pub stiffness: [[f64; 6]; 6],
-    /// Consistent element mass (w_a, theta_a, q1, q2, w_b, theta_b).
+    /// Consistent element mass.
     pub mass: [[f64; 6]; 6],
 }
 
@@ -196,7 +202,7 @@ pub struct ShapeSamples {
 
 impl Element {
     /// Integrates the element of length `h` with properties `p`.
-    pub fn integrate<P: ElementProperties>(p: &P, h: f64) -> Element {
+    pub fn integrate<P: ElementProperties>(p: &P, h: f64) -> (Element, ElementMatrices) {
         let variation = p.relative_variation();
         let np = compliance_points(variation);
         let end = compliance_at(p, h, np);
@@ -298,17 +304,18 @@ impl Element {
         stiffness[2][3] = k12;
         stiffness[3][2] = k12;
         stiffness[3][3] = k22;
-        Element {
-            length_m: h,
-            flexibility,
-            bubbles: [
-                [ends[0].0, ends[0].1, scale[0]],
-                [ends[1].0, ends[1].1, scale[1]],
-            ],
-            bubble_flexibility,
-            stiffness,
-            mass,
-        }
+        (
+            Element {
+                length_m: h,
+                flexibility,
+                bubbles: [
+                    [ends[0].0, ends[0].1, scale[0]],
+                    [ends[1].0, ends[1].1, scale[1]],
+                ],
+                bubble_flexibility,
+            },
+            ElementMatrices { stiffness, mass },
+        )
     }
 
     /// Displacement and rotation shape functions (N_w, N_theta) over
@@ -427,7 +434,7 @@ mod tests {
             j: 0.0,
         };
         let h = 2.5;
-        let e = Element::integrate(&p, h);
+        let (_, e) = Element::integrate(&p, h);
         let k = hermite_stiffness(p.ei, h);
         let m = hermite_mass(p.m, h);
         let map = [0, 1, 4, 5];
@@ -465,7 +472,7 @@ mod tests {
         };
         let h = 4.0;
         let phi = 12.0 * p.ei / (p.kga * h * h);
-        let e = Element::integrate(&p, h);
+        let (_, e) = Element::integrate(&p, h);
         assert_relative_eq!(
             e.stiffness[0][0],
             12.0 * p.ei / ((1.0 + phi) * h.powi(3)),
@@ -497,7 +504,7 @@ mod tests {
             j: 20.0,
         };
         let h = 1.7;
-        let e = Element::integrate(&p, h);
+        let (_, e) = Element::integrate(&p, h);
         let u = [1.0, 0.0, 0.0, 0.0, 1.0, 0.0];
         let mut total = 0.0;
         for i in 0..6 {

@@ -12,6 +12,8 @@
 use crate::case::{BeamTheory, Case, Lining, LiningMass, Stage};
 use crate::section::Annulus;
 
+use rayon::prelude::*;
+
 use super::band::SymBand;
 use super::element::{Element, ElementProperties};
 
@@ -22,6 +24,9 @@ use super::element::{Element, ElementProperties};
 pub fn default_elements(modes: usize) -> usize {
     (10 * modes).max(30)
 }
+
+/// Meshes with more nodes than this integrate their elements in parallel.
+const PARALLEL_ELEMENTS: usize = 1000;
 
 /// Section and material data of one element, linear in the local coordinate.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -183,11 +188,7 @@ impl BeamModel {
         let shell = &case.shell;
         let timoshenko = shell.beam == BeamTheory::Timoshenko;
         let n_nodes = z_m.len();
-        let mut element_data = Vec::with_capacity(n_nodes - 1);
-        let mut elements = Vec::with_capacity(n_nodes - 1);
-        let mut mass = SymBand::zeros(4 * n_nodes - 2);
-        let mut stiffness = SymBand::zeros(4 * n_nodes - 2);
-        for (e, w) in z_m.windows(2).enumerate() {
+        let data_of = |w: &[f64]| {
             let (d0, t0) = shell.geometry_at(w[0]);
             let (d1, t1) = shell.geometry_at(w[1]);
             let mid = 0.5 * (w[0] + w[1]);
@@ -218,9 +219,23 @@ impl BeamModel {
                 timoshenko,
                 lining_coefficients,
             };
-            let el = Element::integrate(&data, data.length_m);
-            mass.add_element(4 * e, &el.mass);
-            stiffness.add_element(4 * e, &el.stiffness);
+            let (el, matrices) = Element::integrate(&data, data.length_m);
+            (data, el, matrices)
+        };
+        // Elements are independent: fine meshes integrate them on all cores (small meshes
+        // stay on the calling thread, which in a sweep is already one of many).
+        let integrated: Vec<_> = if n_nodes > PARALLEL_ELEMENTS {
+            z_m.par_windows(2).map(data_of).collect()
+        } else {
+            z_m.windows(2).map(data_of).collect()
+        };
+        let mut mass = SymBand::zeros(4 * n_nodes - 2);
+        let mut stiffness = SymBand::zeros(4 * n_nodes - 2);
+        let mut element_data = Vec::with_capacity(n_nodes - 1);
+        let mut elements = Vec::with_capacity(n_nodes - 1);
+        for (e, (data, el, matrices)) in integrated.into_iter().enumerate() {
+            mass.add_element(4 * e, &matrices.mass);
+            stiffness.add_element(4 * e, &matrices.stiffness);
             element_data.push(data);
             elements.push(el);
         }
