@@ -37,6 +37,8 @@ fn us(d: Duration) -> f64 {
 }
 
 fn main() {
+    // As the binary does at start-up.
+    stackwake::process::reuse_freed_blocks();
     let mut table = parse_case_text(DEMO_CASE_TOML, "demo").expect("demo");
     // Two stages (shell only, lined): drop the partial-height stage.
     if let Some(toml::Value::Array(stages)) = table.get_mut("stage") {

@@ -19,6 +19,7 @@ pub mod error;
 pub mod fem;
 pub mod input;
 pub mod modal;
+pub mod process;
 pub mod remedy;
 pub mod report;
 pub mod section;

@@ -179,6 +179,7 @@ fn error_text(e: &anyhow::Error) -> String {
 }
 
 fn main() -> ExitCode {
+    stackwake::process::reuse_freed_blocks();
     std::panic::set_hook(Box::new(|info| {
         eprintln!("stackwake: internal error (this is a bug; please report it with the case file): {info}");
         std::process::exit(2);

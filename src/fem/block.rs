@@ -139,6 +139,8 @@ pub fn band_times_block(a: &SymBand, x: &Block, y: &mut Block) {
 mod kernels {
     use super::{Block, HALF_BAND};
     use crate::fem::band::SymBand;
+    #[cfg(target_arch = "x86_64")]
+    use crate::fem::simd_avx2;
     use nalgebra::DMatrix;
 
     const LANES: usize = 4;
@@ -146,6 +148,34 @@ mod kernels {
     /// a * b + c, fused or not.
     trait MulAdd {
         fn mul_add(a: f64, b: f64, c: f64) -> f64;
+
+        /// A hand-tiled band product for whole lanes of a four-row tile: returns how many
+        /// leading columns it formed (0: none, the portable tile does them all).
+        #[inline(always)]
+        fn band_tile(
+            _coef: &[[f64; TILE_SPAN]; TILE_ROWS],
+            _xs: &[f64],
+            _p: usize,
+            _out: &mut [f64],
+        ) -> usize {
+            0
+        }
+
+        /// A hand-tiled four-row Ritz update; false when there is none.
+        #[inline(always)]
+        #[allow(clippy::too_many_arguments)]
+        fn times_tile(
+            _ya: &[f64],
+            _yb: &[f64],
+            _qt: &[f64],
+            _p: usize,
+            _k: usize,
+            _xa: &mut [f64],
+            _xb: &mut [f64],
+            _pair: bool,
+        ) -> bool {
+            false
+        }
     }
     struct Plain;
     impl MulAdd for Plain {
@@ -161,6 +191,34 @@ mod kernels {
         #[inline(always)]
         fn mul_add(a: f64, b: f64, c: f64) -> f64 {
             a.mul_add(b, c)
+        }
+
+        #[inline(always)]
+        fn band_tile(
+            coef: &[[f64; TILE_SPAN]; TILE_ROWS],
+            xs: &[f64],
+            p: usize,
+            out: &mut [f64],
+        ) -> usize {
+            // SAFETY: `Fused` is only used by the bodies compiled for, and dispatched to
+            // after checking, AVX2 + FMA (see `dispatch!`).
+            unsafe { simd_avx2::band_tile(coef, xs, p, out) }
+        }
+
+        #[inline(always)]
+        fn times_tile(
+            ya: &[f64],
+            yb: &[f64],
+            qt: &[f64],
+            p: usize,
+            k: usize,
+            xa: &mut [f64],
+            xb: &mut [f64],
+            pair: bool,
+        ) -> bool {
+            // SAFETY: as for `band_tile`.
+            unsafe { simd_avx2::times_tile(ya, yb, qt, p, k, xa, xb, pair) };
+            true
         }
     }
 
@@ -312,6 +370,20 @@ mod kernels {
     ) {
         let p = ya.width;
         let k = xa.width;
+        if R == TILE_ROWS {
+            let (ra, rb) = (&ya.data[i * p..(i + R) * p], &yb.data[i * p..(i + R) * p]);
+            let (oa, ob) = if PAIR {
+                (
+                    &mut xa.data[i * k..(i + R) * k],
+                    &mut xb.data[i * k..(i + R) * k],
+                )
+            } else {
+                (&mut xa.data[i * k..(i + R) * k], &mut [][..])
+            };
+            if M::times_tile(ra, rb, qt, p, k, oa, ob, PAIR) {
+                return;
+            }
+        }
         let sa: [&[f64]; R] = std::array::from_fn(|t| &ya.data[(i + t) * p..][..p]);
         let sb: [&[f64]; R] = std::array::from_fn(|t| &yb.data[(i + t) * p..][..p]);
         for (g, qg) in qt.chunks_exact(p * LANES).enumerate() {
@@ -399,7 +471,8 @@ mod kernels {
                 row[t..t + ROW_SPAN].copy_from_slice(&full(i + t));
             }
             let xs = &x.data[(i - HALF_BAND) * p..(i - HALF_BAND + TILE_SPAN) * p];
-            for c0 in (0..lanes_end).step_by(LANES) {
+            let done = M::band_tile(&coef, xs, p, &mut y.data[i * p..(i + TILE_ROWS) * p]);
+            for c0 in (done..lanes_end).step_by(LANES) {
                 let mut acc = [[0.0; LANES]; TILE_ROWS];
                 for s in 0..TILE_SPAN {
                     let xv: &[f64; LANES] =

@@ -15,6 +15,8 @@ pub mod element;
 pub mod flexibility;
 pub mod gauss;
 pub mod model;
+#[cfg(target_arch = "x86_64")]
+mod simd_avx2;
 pub mod subspace;
 
 use thiserror::Error;
