@@ -3,6 +3,7 @@
 //! once through memory and work on p values at a time.
 
 use nalgebra::DMatrix;
+use rayon::prelude::*;
 
 use super::band::{SymBand, HALF_BAND};
 
@@ -75,6 +76,25 @@ impl Block {
         DMatrix::from_row_slice(p, q, &acc)
     }
 
+    /// Rows `r0..r1` as a borrowed view.
+    fn rows(&self, r0: usize, r1: usize) -> Rows<'_> {
+        Rows {
+            dofs: r1 - r0,
+            width: self.width,
+            data: &self.data[r0 * self.width..r1 * self.width],
+        }
+    }
+
+    fn all_rows(&self) -> Rows<'_> {
+        self.rows(0, self.dofs)
+    }
+
+    /// Blocks this large are processed by all cores (fine meshes); smaller ones stay on the
+    /// calling thread, which in a sweep is already one of many.
+    fn is_large(&self) -> bool {
+        self.dofs > 2 * CHUNK_ROWS && self.dofs * self.width >= PARALLEL_ENTRIES
+    }
+
     /// (A^T B, A^T C) in one pass over the rows, for pairs known to be symmetric
     /// (B and C of the same width as A): only the upper triangles are accumulated and then
     /// mirrored, which halves the work. In the subspace iteration A^T B = Y^T K Y and
@@ -84,9 +104,35 @@ impl Block {
         assert!(self.dofs == b.dofs && self.dofs == c.dofs);
         assert!(b.width == self.width && c.width == self.width);
         let p = self.width;
+        let partial = |r0: usize| {
+            let r1 = (r0 + CHUNK_ROWS).min(self.dofs);
+            let mut ab = vec![0.0; p * p];
+            let mut ac = vec![0.0; p * p];
+            kernels::gram_pair_upper(
+                self.rows(r0, r1),
+                b.rows(r0, r1),
+                c.rows(r0, r1),
+                &mut ab,
+                &mut ac,
+            );
+            (ab, ac)
+        };
+        let starts: Vec<usize> = (0..self.dofs).step_by(CHUNK_ROWS).collect();
+        // Partial sums per fixed-size chunk, added in chunk order: the result does not
+        // depend on the number of threads.
+        let partials: Vec<_> = if self.is_large() {
+            starts.par_iter().map(|&r0| partial(r0)).collect()
+        } else {
+            starts.iter().map(|&r0| partial(r0)).collect()
+        };
         let mut ab = vec![0.0; p * p];
         let mut ac = vec![0.0; p * p];
-        kernels::gram_pair_upper(self, b, c, &mut ab, &mut ac);
+        for (pab, pac) in partials {
+            for k in 0..p * p {
+                ab[k] += pab[k];
+                ac[k] += pac[k];
+            }
+        }
         let mirror = |acc: &[f64]| {
             DMatrix::from_fn(p, p, |r, k| {
                 if r <= k {
@@ -103,9 +149,7 @@ impl Block {
     #[track_caller]
     pub fn times(&self, q: &DMatrix<f64>, out: &mut Block) {
         assert!(q.nrows() == self.width && out.width == q.ncols() && out.dofs == self.dofs);
-        let mut spare = Block::zeros(0, q.ncols());
-        let empty = Block::zeros(0, self.width);
-        kernels::times_pair(self, &empty, q, out, &mut spare);
+        self.times_into(None, q, out, None);
     }
 
     /// (out_a, out_b) = (self * Q, other * Q) in one pass (Q is width x k).
@@ -120,7 +164,89 @@ impl Block {
         assert!(q.nrows() == self.width && other.width == self.width);
         assert!(out_a.width == q.ncols() && out_b.width == q.ncols());
         assert!(out_a.dofs == self.dofs && other.dofs == self.dofs && out_b.dofs == self.dofs);
-        kernels::times_pair(self, other, q, out_a, out_b);
+        self.times_into(Some(other), q, out_a, Some(out_b));
+    }
+
+    fn times_into(
+        &self,
+        other: Option<&Block>,
+        q: &DMatrix<f64>,
+        out_a: &mut Block,
+        out_b: Option<&mut Block>,
+    ) {
+        let (p, k) = (self.width, q.ncols());
+        if k == 0 {
+            return;
+        }
+        let qt = kernels::lane_major(q);
+        let empty = Block::zeros(0, p);
+        let one = |r0: usize, xa: &mut [f64], xb: &mut [f64]| {
+            let rows = xa.len() / k;
+            let yb = match other {
+                Some(o) => o.rows(r0, r0 + rows),
+                None => empty.all_rows(),
+            };
+            let mut va = RowsMut {
+                dofs: rows,
+                width: k,
+                data: xa,
+            };
+            let mut vb = RowsMut {
+                dofs: xb.len() / k,
+                width: k,
+                data: xb,
+            };
+            kernels::times_pair(self.rows(r0, r0 + rows), yb, &qt, &mut va, &mut vb);
+        };
+        let large = self.is_large();
+        match out_b {
+            Some(out_b) if large => out_a
+                .data
+                .par_chunks_mut(CHUNK_ROWS * k)
+                .zip(out_b.data.par_chunks_mut(CHUNK_ROWS * k))
+                .enumerate()
+                .for_each(|(c, (xa, xb))| one(c * CHUNK_ROWS, xa, xb)),
+            Some(out_b) => one(0, &mut out_a.data, &mut out_b.data),
+            None if large => out_a
+                .data
+                .par_chunks_mut(CHUNK_ROWS * k)
+                .enumerate()
+                .for_each(|(c, xa)| one(c * CHUNK_ROWS, xa, &mut [])),
+            None => one(0, &mut out_a.data, &mut []),
+        }
+    }
+}
+
+/// Rows per parallel chunk (a fixed size, so sums do not depend on the thread count).
+const CHUNK_ROWS: usize = 4096;
+/// Blocks with at least this many entries use all cores.
+const PARALLEL_ENTRIES: usize = 1 << 18;
+
+/// A borrowed range of rows of a [`Block`].
+#[derive(Debug, Clone, Copy)]
+struct Rows<'a> {
+    dofs: usize,
+    width: usize,
+    data: &'a [f64],
+}
+
+impl Rows<'_> {
+    fn row(&self, i: usize) -> &[f64] {
+        &self.data[i * self.width..(i + 1) * self.width]
+    }
+}
+
+/// A mutably borrowed range of rows of a [`Block`].
+#[derive(Debug)]
+struct RowsMut<'a> {
+    dofs: usize,
+    width: usize,
+    data: &'a mut [f64],
+}
+
+impl RowsMut<'_> {
+    fn row_mut(&mut self, i: usize) -> &mut [f64] {
+        &mut self.data[i * self.width..(i + 1) * self.width]
     }
 }
 
@@ -130,14 +256,33 @@ impl Block {
 pub fn band_times_block(a: &SymBand, x: &Block, y: &mut Block) {
     let n = a.dim();
     assert!(x.dofs == n && y.dofs == n && x.width == y.width);
-    kernels::band_times(a, x, y);
+    let p = x.width;
+    if p == 0 {
+        return;
+    }
+    let one = |r0: usize, ys: &mut [f64]| {
+        let mut view = RowsMut {
+            dofs: ys.len() / p,
+            width: p,
+            data: ys,
+        };
+        kernels::band_times(a, x.all_rows(), r0, &mut view);
+    };
+    if x.is_large() {
+        y.data
+            .par_chunks_mut(CHUNK_ROWS * p)
+            .enumerate()
+            .for_each(|(c, ys)| one(c * CHUNK_ROWS, ys));
+    } else {
+        one(0, &mut y.data);
+    }
 }
 
 /// The dense inner loops, written over lanes of four columns with the accumulators held in
 /// registers, compiled twice: for the x86-64 baseline and, chosen at run time when the CPU
 /// has them, for AVX2 with fused multiply-add. Results of the two differ only by rounding.
 mod kernels {
-    use super::{Block, HALF_BAND};
+    use super::{Rows, RowsMut, HALF_BAND};
     use crate::fem::band::SymBand;
     #[cfg(target_arch = "x86_64")]
     use crate::fem::simd_avx2;
@@ -255,16 +400,22 @@ mod kernels {
     }
 
     dispatch!(gram_pair_upper, gram_pair_upper_fma, gram_pair_body,
-        (a: &Block, b: &Block, c: &Block, ab: &mut [f64], ac: &mut [f64]));
+        (a: Rows<'_>, b: Rows<'_>, c: Rows<'_>, ab: &mut [f64], ac: &mut [f64]));
     dispatch!(times_pair, times_pair_fma, times_pair_body,
-        (ya: &Block, yb: &Block, q: &DMatrix<f64>, xa: &mut Block, xb: &mut Block));
+        (ya: Rows<'_>, yb: Rows<'_>, qt: &[f64], xa: &mut RowsMut<'_>, xb: &mut RowsMut<'_>));
     dispatch!(band_times, band_times_fma, band_times_body,
-        (a: &SymBand, x: &Block, y: &mut Block));
+        (a: &SymBand, x: Rows<'_>, r0: usize, y: &mut RowsMut<'_>));
 
     /// Upper triangles of A^T B and A^T C, four rows of A at a time so each accumulator is
     /// loaded and stored once per eight multiply-adds.
     #[inline(always)]
-    fn gram_pair_body<M: MulAdd>(a: &Block, b: &Block, c: &Block, ab: &mut [f64], ac: &mut [f64]) {
+    fn gram_pair_body<M: MulAdd>(
+        a: Rows<'_>,
+        b: Rows<'_>,
+        c: Rows<'_>,
+        ab: &mut [f64],
+        ac: &mut [f64],
+    ) {
         let p = a.width;
         let rows = a.dofs;
         let mut i = 0;
@@ -304,7 +455,7 @@ mod kernels {
 
     /// Q re-laid lane by lane: for each group of four output columns, the p rows of those
     /// four entries contiguously (zero-padded past the last column).
-    fn lane_major(q: &DMatrix<f64>) -> Vec<f64> {
+    pub(super) fn lane_major(q: &DMatrix<f64>) -> Vec<f64> {
         let (p, k) = (q.nrows(), q.ncols());
         let groups = k.div_ceil(LANES);
         let mut out = vec![0.0; groups * p * LANES];
@@ -328,31 +479,30 @@ mod kernels {
     /// (XA, XB) = (YA Q, YB Q); YB may have no rows (then XB is left alone).
     #[inline(always)]
     fn times_pair_body<M: MulAdd>(
-        ya: &Block,
-        yb: &Block,
-        q: &DMatrix<f64>,
-        xa: &mut Block,
-        xb: &mut Block,
+        ya: Rows<'_>,
+        yb: Rows<'_>,
+        qt: &[f64],
+        xa: &mut RowsMut<'_>,
+        xb: &mut RowsMut<'_>,
     ) {
-        let qt = lane_major(q);
         let rows = ya.dofs;
         let mut i = 0;
         if yb.dofs == rows {
             while i + TILE_ROWS <= rows {
-                times_tile::<M, TILE_ROWS, true>(ya, yb, &qt, i, xa, xb);
+                times_tile::<M, TILE_ROWS, true>(ya, yb, qt, i, xa, xb);
                 i += TILE_ROWS;
             }
             while i < rows {
-                times_tile::<M, 1, true>(ya, yb, &qt, i, xa, xb);
+                times_tile::<M, 1, true>(ya, yb, qt, i, xa, xb);
                 i += 1;
             }
         } else {
             while i + TILE_ROWS <= rows {
-                times_tile::<M, TILE_ROWS, false>(ya, ya, &qt, i, xa, xb);
+                times_tile::<M, TILE_ROWS, false>(ya, ya, qt, i, xa, xb);
                 i += TILE_ROWS;
             }
             while i < rows {
-                times_tile::<M, 1, false>(ya, ya, &qt, i, xa, xb);
+                times_tile::<M, 1, false>(ya, ya, qt, i, xa, xb);
                 i += 1;
             }
         }
@@ -361,12 +511,12 @@ mod kernels {
     /// Rows i..i+R of (YA Q, YB Q), lane by lane, accumulators in registers.
     #[inline(always)]
     fn times_tile<M: MulAdd, const R: usize, const PAIR: bool>(
-        ya: &Block,
-        yb: &Block,
+        ya: Rows<'_>,
+        yb: Rows<'_>,
         qt: &[f64],
         i: usize,
-        xa: &mut Block,
-        xb: &mut Block,
+        xa: &mut RowsMut<'_>,
+        xb: &mut RowsMut<'_>,
     ) {
         let p = ya.width;
         let k = xa.width;
@@ -422,12 +572,14 @@ mod kernels {
     /// Entries of one full band row.
     const ROW_SPAN: usize = 2 * HALF_BAND + 1;
 
-    /// Y = A X: interior rows in tiles of four sharing one pass over their 14 neighbour rows
-    /// of X; the few rows near the ends, where the band is cut, one at a time.
+    /// Rows r0..r0 + y.dofs of Y = A X: interior rows in tiles of four sharing one pass over
+    /// their 14 neighbour rows of X; rows near the ends of the matrix (where the band is
+    /// cut) and of the range, one at a time.
     #[inline(always)]
-    fn band_times_body<M: MulAdd>(a: &SymBand, x: &Block, y: &mut Block) {
+    fn band_times_body<M: MulAdd>(a: &SymBand, x: Rows<'_>, r0: usize, y: &mut RowsMut<'_>) {
         let n = a.dim();
         let p = x.width;
+        let r1 = r0 + y.dofs;
         // full(i)[k] = A[i][i - HALF_BAND + k] (zero outside the matrix), read from the
         // upper band rows without a copy of the matrix.
         let full = |i: usize| -> [f64; ROW_SPAN] {
@@ -446,8 +598,8 @@ mod kernels {
                 }
             })
         };
-        let single = |i: usize, y: &mut Block| {
-            let yi = y.row_mut(i);
+        let single = |i: usize, y: &mut RowsMut<'_>| {
+            let yi = y.row_mut(i - r0);
             let row = full(i);
             for (col, out) in yi.iter_mut().enumerate() {
                 let mut acc = 0.0;
@@ -459,19 +611,21 @@ mod kernels {
                 *out = acc;
             }
         };
-        let first_tile = HALF_BAND.min(n);
-        for i in 0..first_tile {
+        let mut i = r0;
+        while i < r1 && i < HALF_BAND {
             single(i, y);
+            i += 1;
         }
         let lanes_end = p / LANES * LANES;
-        let mut i = first_tile;
-        while i + TILE_ROWS + HALF_BAND <= n {
+        while i + TILE_ROWS <= r1 && i + TILE_ROWS + HALF_BAND <= n {
             let mut coef = [[0.0; TILE_SPAN]; TILE_ROWS];
             for (t, row) in coef.iter_mut().enumerate() {
                 row[t..t + ROW_SPAN].copy_from_slice(&full(i + t));
             }
             let xs = &x.data[(i - HALF_BAND) * p..(i - HALF_BAND + TILE_SPAN) * p];
-            let done = M::band_tile(&coef, xs, p, &mut y.data[i * p..(i + TILE_ROWS) * p]);
+            let local = i - r0;
+            let ys = &mut y.data[local * p..(local + TILE_ROWS) * p];
+            let done = M::band_tile(&coef, xs, p, ys);
             for c0 in (done..lanes_end).step_by(LANES) {
                 let mut acc = [[0.0; LANES]; TILE_ROWS];
                 for s in 0..TILE_SPAN {
@@ -484,8 +638,7 @@ mod kernels {
                     }
                 }
                 for (t, lane) in acc.iter().enumerate() {
-                    let out = &mut y.data[(i + t) * p + c0..(i + t) * p + c0 + LANES];
-                    out.copy_from_slice(lane);
+                    ys[t * p + c0..t * p + c0 + LANES].copy_from_slice(lane);
                 }
             }
             for col in lanes_end..p {
@@ -494,18 +647,19 @@ mod kernels {
                     for s in 0..TILE_SPAN {
                         acc = M::mul_add(coef[t][s], xs[s * p + col], acc);
                     }
-                    y.data[(i + t) * p + col] = acc;
+                    ys[t * p + col] = acc;
                 }
             }
             i += TILE_ROWS;
         }
-        for i in i..n {
+        for i in i..r1 {
             single(i, y);
         }
     }
 
     #[cfg(test)]
     mod tests {
+        use super::super::{band_times_block, Block};
         use super::*;
 
         /// Deterministic pseudo-random fill in [-1, 1).
@@ -544,57 +698,116 @@ mod kernels {
             (a - b).abs() <= 1e-12 * (1.0 + b.abs())
         }
 
-        // Reference: the plain triple loops (definition of the products). Both compiled
-        // variants are checked on every size class the tiles distinguish: fewer rows than a
-        // tile span, ragged last tiles and widths that are not whole lanes.
+        /// Reference products from their definitions (the band one column at a time with
+        /// the plain symmetric band product).
+        fn check(
+            a: &SymBand,
+            x: &Block,
+            c: &Block,
+            q: &DMatrix<f64>,
+            got: [&Block; 3],
+            ab: &DMatrix<f64>,
+            ac: &DMatrix<f64>,
+        ) {
+            let (n, p) = (x.dofs, x.width);
+            let [y, xa, xb] = got;
+            let mut col_in = vec![0.0; n];
+            let mut col_out = vec![0.0; n];
+            for col in 0..p {
+                for i in 0..n {
+                    col_in[i] = x.get(i, col);
+                }
+                a.mul_vec(&col_in, &mut col_out);
+                for i in 0..n {
+                    assert!(close(y.get(i, col), col_out[i]), "band n={n} p={p}");
+                }
+            }
+            for i in 0..n {
+                for col in 0..p {
+                    let xq: f64 = (0..p).map(|r| x.get(i, r) * q[(r, col)]).sum();
+                    let cq: f64 = (0..p).map(|r| c.get(i, r) * q[(r, col)]).sum();
+                    assert!(close(xa.get(i, col), xq), "times n={n} p={p}");
+                    assert!(close(xb.get(i, col), cq), "times n={n} p={p}");
+                }
+            }
+            for r in 0..p {
+                for col in 0..p {
+                    let xx: f64 = (0..n).map(|i| x.get(i, r) * x.get(i, col)).sum();
+                    let xc: f64 = (0..n).map(|i| x.get(i, r) * c.get(i, col)).sum();
+                    assert!(close(ab[(r, col)], xx), "gram n={n} p={p}");
+                    if r <= col {
+                        assert!(close(ac[(r, col)], xc), "gram n={n} p={p}");
+                    }
+                }
+            }
+        }
+
+        // Both compiled variants, on every size class the tiles distinguish: fewer rows than
+        // a tile span, ragged last tiles, widths that are not whole lanes, and (last) a block
+        // large enough to be split across threads in chunks.
         #[test]
         fn kernels_match_the_definitions() {
+            let mut sizes: Vec<(usize, usize)> = Vec::new();
             for n in [1, 2, 5, 6, 9, 13, 14, 15, 19, 40] {
                 for p in [1, 2, 3, 4, 5, 7, 8, 18] {
-                    let seed = (n * 100 + p) as u64;
-                    let a = band(seed, n);
-                    let x = block(seed + 1, n, p);
-                    let c = block(seed + 2, n, p);
-                    let q = DMatrix::from_vec(p, p, fill(seed + 3, p * p));
-                    let mut y = Block::zeros(n, p);
-                    let mut xa = Block::zeros(n, p);
-                    let mut xb = Block::zeros(n, p);
-                    let check = |y: &Block, xa: &Block, xb: &Block, ab: &[f64], ac: &[f64]| {
-                        for i in 0..n {
-                            for col in 0..p {
-                                let ax: f64 = (0..n).map(|j| a.get(i, j) * x.get(j, col)).sum();
-                                assert!(close(y.get(i, col), ax), "band n={n} p={p}");
-                                let xq: f64 = (0..p).map(|r| x.get(i, r) * q[(r, col)]).sum();
-                                let cq: f64 = (0..p).map(|r| c.get(i, r) * q[(r, col)]).sum();
-                                assert!(close(xa.get(i, col), xq), "times n={n} p={p}");
-                                assert!(close(xb.get(i, col), cq), "times n={n} p={p}");
-                            }
-                        }
-                        for r in 0..p {
-                            for col in r..p {
-                                let xx: f64 = (0..n).map(|i| x.get(i, r) * x.get(i, col)).sum();
-                                let xc: f64 = (0..n).map(|i| x.get(i, r) * c.get(i, col)).sum();
-                                assert!(close(ab[r * p + col], xx), "gram n={n} p={p}");
-                                assert!(close(ac[r * p + col], xc), "gram n={n} p={p}");
-                            }
-                        }
-                    };
-                    let (mut ab, mut ac) = (vec![0.0; p * p], vec![0.0; p * p]);
-                    band_times_body::<Plain>(&a, &x, &mut y);
-                    times_pair_body::<Plain>(&x, &c, &q, &mut xa, &mut xb);
-                    gram_pair_body::<Plain>(&x, &x, &c, &mut ab, &mut ac);
-                    check(&y, &xa, &xb, &ab, &ac);
-                    let (mut ab, mut ac) = (vec![0.0; p * p], vec![0.0; p * p]);
-                    band_times(&a, &x, &mut y);
-                    times_pair(&x, &c, &q, &mut xa, &mut xb);
-                    gram_pair_upper(&x, &x, &c, &mut ab, &mut ac);
-                    check(&y, &xa, &xb, &ab, &ac);
-                    // The single-block product (no partner) leaves the second output alone.
-                    let mut untouched = Block::zeros(0, p);
-                    let mut xs = Block::zeros(n, p);
-                    times_pair(&x, &Block::zeros(0, p), &q, &mut xs, &mut untouched);
-                    assert_eq!(xs, xa);
+                    sizes.push((n, p));
                 }
+            }
+            sizes.push((9001, 30));
+            for (n, p) in sizes {
+                let seed = (n * 100 + p) as u64;
+                let a = band(seed, n);
+                let x = block(seed + 1, n, p);
+                let c = block(seed + 2, n, p);
+                let q = DMatrix::from_vec(p, p, fill(seed + 3, p * p));
+                // Public, dispatched (and for the large block, parallel) entry points.
+                let mut y = Block::zeros(n, p);
+                let mut xa = Block::zeros(n, p);
+                let mut xb = Block::zeros(n, p);
+                band_times_block(&a, &x, &mut y);
+                x.times_pair(&c, &q, &mut xa, &mut xb);
+                let (ab, ac) = x.gram_pair(&x, &c);
+                check(&a, &x, &c, &q, [&y, &xa, &xb], &ab, &ac);
+                let mut xs = Block::zeros(n, p);
+                x.times(&q, &mut xs);
+                assert_eq!(xs, xa);
+                // The portable bodies.
+                fn view(b: &Block) -> Rows<'_> {
+                    b.all_rows()
+                }
+                let qt = lane_major(&q);
+                let mut y = Block::zeros(n, p);
+                let mut xa = Block::zeros(n, p);
+                let mut xb = Block::zeros(n, p);
+                {
+                    let mut vy = RowsMut {
+                        dofs: n,
+                        width: p,
+                        data: &mut y.data,
+                    };
+                    band_times_body::<Plain>(&a, view(&x), 0, &mut vy);
+                    let mut va = RowsMut {
+                        dofs: n,
+                        width: p,
+                        data: &mut xa.data,
+                    };
+                    let mut vb = RowsMut {
+                        dofs: n,
+                        width: p,
+                        data: &mut xb.data,
+                    };
+                    times_pair_body::<Plain>(view(&x), view(&c), &qt, &mut va, &mut vb);
+                }
+                let (mut ab, mut ac) = (vec![0.0; p * p], vec![0.0; p * p]);
+                gram_pair_body::<Plain>(view(&x), view(&x), view(&c), &mut ab, &mut ac);
+                let upper = |v: &[f64]| {
+                    DMatrix::from_fn(
+                        p,
+                        p,
+                        |r, k| if r <= k { v[r * p + k] } else { v[k * p + r] },
+                    )
+                };
+                check(&a, &x, &c, &q, [&y, &xa, &xb], &upper(&ab), &upper(&ac));
             }
         }
     }

@@ -19,6 +19,7 @@ pub mod model;
 mod simd_avx2;
 pub mod subspace;
 
+use rayon::prelude::*;
 use thiserror::Error;
 
 pub use model::BeamModel;
@@ -58,6 +59,9 @@ pub enum SolverError {
 /// a mesh of this size.
 pub const COARSE_ELEMENTS: usize = 200;
 
+/// Fine meshes with more nodes than this interpolate their start vectors on all cores.
+const PARALLEL_NODES: usize = 4096;
+
 /// Builds the beam model of `stage` and solves for its lowest `modes` modes.
 pub fn solve_stage(
     case: &Case,
@@ -79,16 +83,22 @@ pub fn solve_stage(
 }
 
 /// Evaluates the coarse model's vectors at the fine model's nodes with the coarse elements'
-/// exact shapes (fine bubbles start at zero).
+/// exact shapes (fine bubbles start at zero). Fine nodes are independent, so large meshes
+/// use all cores.
 pub fn interpolate_modes(coarse: &BeamModel, vectors: &Block, fine: &BeamModel) -> Block {
     let width = vectors.width;
     let mut out = Block::zeros(fine.dofs(), width);
-    let mut e = 0;
+    if width == 0 {
+        return out;
+    }
     let n_coarse = coarse.elements.len();
-    for (i, &z) in fine.z_m.iter().enumerate() {
-        while e + 1 < n_coarse && z > coarse.z_m[e + 1] {
-            e += 1;
-        }
+    // Node i owns rows 4i..4i+4 (w, theta and the bubbles of element i, left at zero).
+    let node = |(i, rows): (usize, &mut [f64])| {
+        let z = fine.z_m[i];
+        // The coarse element holding z: the last one whose bottom node is below z.
+        let e = coarse.z_m[1..n_coarse]
+            .partition_point(|&zc| zc < z)
+            .min(n_coarse - 1);
         let s = (z - coarse.z_m[e]).clamp(0.0, coarse.elements[e].length_m);
         let (nw, nt) = coarse.elements[e].shapes(&coarse.element_data[e], s);
         for c in 0..width {
@@ -98,9 +108,15 @@ pub fn interpolate_modes(coarse: &BeamModel, vectors: &Block, fine: &BeamModel) 
                 w += nw[k] * u;
                 t += nt[k] * u;
             }
-            out.set(4 * i, c, w);
-            out.set(4 * i + 1, c, t);
+            rows[c] = w;
+            rows[width + c] = t;
         }
+    };
+    let chunk = 4 * width;
+    if fine.z_m.len() > PARALLEL_NODES {
+        out.data.par_chunks_mut(chunk).enumerate().for_each(node);
+    } else {
+        out.data.chunks_mut(chunk).enumerate().for_each(node);
     }
     out
 }
