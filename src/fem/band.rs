@@ -103,34 +103,57 @@ impl SymBand {
     /// number of eigenvalues of (K, M) below sigma (Sturm sequence property). A zero pivot is
     /// replaced by a tiny positive one (sigma moved infinitesimally).
     pub fn negative_pivots(&self) -> usize {
-        let n = self.rows.len();
-        // l[i][k] = L[i][i - k], k = 1..=HALF_BAND; d[i] = D[i].
-        let mut l = vec![[0.0f64; HALF_BAND + 1]; n];
-        let mut d = vec![0.0f64; n];
-        let mut negatives = 0;
-        for j in 0..n {
-            let mut dj = self.rows[j][0];
-            for k in 1..=HALF_BAND.min(j) {
-                dj -= l[j][k] * l[j][k] * d[j - k];
-            }
-            if dj == 0.0 {
-                dj = f64::MIN_POSITIVE * (1.0 + self.rows[j][0].abs());
-            }
-            if dj < 0.0 {
-                negatives += 1;
-            }
-            d[j] = dj;
-            for i in (j + 1)..n.min(j + HALF_BAND + 1) {
-                // A[i][j] - sum_k L[i][k] L[j][k] D[k] over k < j inside both bands.
-                let mut v = self.rows[j][i - j];
-                for k in (i.saturating_sub(HALF_BAND))..j {
-                    v -= l[i][i - k] * l[j][j - k] * d[k];
-                }
-                l[i][i - j] = v / dj;
-            }
-        }
-        negatives
+        negative_pivots_of(self.rows.len(), |j| self.rows[j])
     }
+
+    /// [`Self::negative_pivots`] of `self - sigma * other`, without forming the shifted
+    /// matrix.
+    pub fn negative_pivots_shifted(&self, sigma: f64, other: &SymBand) -> usize {
+        assert_eq!(self.dim(), other.dim());
+        negative_pivots_of(self.rows.len(), |j| {
+            let mut r = self.rows[j];
+            for (v, m) in r.iter_mut().zip(&other.rows[j]) {
+                *v -= sigma * m;
+            }
+            r
+        })
+    }
+}
+
+/// Rows of L and pivots kept at once: column j of the factorisation reads rows j..=j +
+/// HALF_BAND of L and the last HALF_BAND pivots, so a ring of 8 suffices and the count runs
+/// in constant memory.
+const RING: usize = 8;
+
+/// LDL^T pivot signs of the band matrix whose upper row j is `row(j)`.
+fn negative_pivots_of(n: usize, row: impl Fn(usize) -> [f64; HALF_BAND + 1]) -> usize {
+    // l[i % RING][k] = L[i][i - k], k = 1..=HALF_BAND; d[i % RING] = D[i].
+    let mut l = [[0.0f64; HALF_BAND + 1]; RING];
+    let mut d = [0.0f64; RING];
+    let mut negatives = 0;
+    for j in 0..n {
+        let rj = row(j);
+        let mut dj = rj[0];
+        for k in 1..=HALF_BAND.min(j) {
+            dj -= l[j % RING][k] * l[j % RING][k] * d[(j - k) % RING];
+        }
+        if dj == 0.0 {
+            dj = f64::MIN_POSITIVE * (1.0 + rj[0].abs());
+        }
+        if dj < 0.0 {
+            negatives += 1;
+        }
+        d[j % RING] = dj;
+        for i in (j + 1)..n.min(j + HALF_BAND + 1) {
+            // A[i][j] - sum_k L[i][k] L[j][k] D[k] over k < j inside both bands.
+            let mut v = rj[i - j];
+            for k in (i.saturating_sub(HALF_BAND))..j {
+                v -= l[i % RING][i - k] * l[j % RING][j - k] * d[k % RING];
+            }
+            l[i % RING][i - j] = v / dj;
+        }
+    }
+    negatives
 }
 
 #[cfg(test)]
@@ -169,5 +192,44 @@ mod tests {
             m.add(i, i, 1.0);
         }
         assert_eq!(a.shifted(4.5, &m).negative_pivots(), 4);
+        assert_eq!(a.negative_pivots_shifted(4.5, &m), 4);
+    }
+
+    #[test]
+    fn sturm_count_matches_dense_eigenvalues() {
+        // Sylvester's law of inertia: the negative pivots of A = LDL^T equal the negative
+        // eigenvalues of A (reference: nalgebra's dense symmetric eigen-solver).
+        let n = 40;
+        let mut h: u64 = 0x2545_F491_4F6C_DD1D;
+        let mut next = || {
+            h ^= h << 13;
+            h ^= h >> 7;
+            h ^= h << 17;
+            (h % 10_000) as f64 / 5_000.0 - 1.0
+        };
+        for shift in [-3.0, -0.5, 0.0, 0.7, 2.5] {
+            let mut a = SymBand::zeros(n);
+            let mut m = SymBand::zeros(n);
+            for i in 0..n {
+                a.add(i, i, 2.0 + next());
+                m.add(i, i, 1.0);
+                for k in 1..=HALF_BAND.min(n - 1 - i) {
+                    a.add(i, i + k, 0.4 * next());
+                }
+            }
+            let dense = nalgebra::DMatrix::from_fn(n, n, |i, j| a.get(i, j) - shift * m.get(i, j));
+            let expected = dense
+                .symmetric_eigen()
+                .eigenvalues
+                .iter()
+                .filter(|&&v| v < 0.0)
+                .count();
+            assert_eq!(
+                a.negative_pivots_shifted(shift, &m),
+                expected,
+                "shift {shift}"
+            );
+            assert_eq!(a.shifted(shift, &m).negative_pivots(), expected);
+        }
     }
 }

@@ -320,10 +320,7 @@ pub fn lowest_modes_from(
     let phi = x.leading(n);
     // Sturm count at a shift between the last wanted and the next eigenvalue.
     let shift = (values[n - 1] * values[n]).sqrt();
-    let sturm_count = model
-        .stiffness
-        .shifted(shift, &model.mass)
-        .negative_pivots();
+    let sturm_count = model.stiffness.negative_pivots_shifted(shift, &model.mass);
     if sturm_count != n {
         return Err(SolverError::Incomplete {
             expected: n,
