@@ -97,6 +97,17 @@ impl ElementProperties for ElementData {
         }
     }
 
+    fn compliance_rates(&self, s_m: f64) -> (f64, f64) {
+        let a = self.annulus(s_m);
+        let inv_ei = 1.0 / (self.elastic_modulus_pa * a.second_moment_m4());
+        if !self.timoshenko {
+            return (inv_ei, 0.0);
+        }
+        let kga =
+            a.cowper_shear_coefficient(self.poisson_ratio) * self.shear_modulus_pa * a.area_m2();
+        (inv_ei, 1.0 / kga)
+    }
+
     fn relative_variation(&self) -> f64 {
         let dd = (self.outer_diameter_top_m - self.outer_diameter_bottom_m).abs()
             / self.outer_diameter_bottom_m.min(self.outer_diameter_top_m);
