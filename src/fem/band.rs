@@ -21,6 +21,11 @@ impl SymBand {
         self.rows.len()
     }
 
+    /// All rows of the upper band, for assembly in place.
+    pub(crate) fn rows_mut(&mut self) -> &mut [[f64; HALF_BAND + 1]] {
+        &mut self.rows
+    }
+
     /// Row i of the upper band: A[i][i + k], k = 0..=HALF_BAND.
     pub fn row(&self, i: usize) -> &[f64; HALF_BAND + 1] {
         &self.rows[i]

@@ -14,7 +14,7 @@ use crate::section::Annulus;
 
 use rayon::prelude::*;
 
-use super::band::SymBand;
+use super::band::{SymBand, HALF_BAND};
 use super::element::{Element, ElementProperties};
 
 /// Default element count: about 10 elements per requested mode (with a floor of 30) keeps
@@ -230,24 +230,57 @@ impl BeamModel {
                 timoshenko,
                 lining_coefficients,
             };
-            let (el, matrices) = Element::integrate(&data, data.length_m);
-            (data, el, matrices)
+            data
         };
-        // Elements are independent: fine meshes integrate them on all cores (small meshes
-        // stay on the calling thread, which in a sweep is already one of many).
-        let integrated: Vec<_> = if n_nodes > PARALLEL_ELEMENTS {
-            z_m.par_windows(2).map(data_of).collect()
-        } else {
-            z_m.windows(2).map(data_of).collect()
-        };
+        let element_data: Vec<ElementData> = z_m.windows(2).map(data_of).collect();
         let mut mass = SymBand::zeros(4 * n_nodes - 2);
         let mut stiffness = SymBand::zeros(4 * n_nodes - 2);
-        let mut element_data = Vec::with_capacity(n_nodes - 1);
+        // Element e owns band rows 4e..4e + 4 (its lower node and bubbles) and shares its
+        // upper node's rows with element e + 1: it writes its own rows in place and hands
+        // back the upper-node 2x2 blocks, which are added in order afterwards. So elements
+        // are integrated and assembled independently (on all cores for fine meshes; small
+        // meshes stay on the calling thread, which in a sweep is already one of many) and
+        // the 6x6 matrices never leave the thread that computed them.
+        let one = |((m_rows, k_rows), data): (
+            (&mut [[f64; HALF_BAND + 1]], &mut [[f64; HALF_BAND + 1]]),
+            &ElementData,
+        )| {
+            let (el, matrices) = Element::integrate(data, data.length_m);
+            let own = |rows: &mut [[f64; HALF_BAND + 1]], a: &[[f64; 6]; 6]| {
+                for i in 0..4 {
+                    for j in i..6 {
+                        rows[i][j - i] += a[i][j];
+                    }
+                }
+            };
+            own(m_rows, &matrices.mass);
+            own(k_rows, &matrices.stiffness);
+            let upper = |a: &[[f64; 6]; 6]| [a[4][4], a[4][5], a[5][5]];
+            (el, upper(&matrices.mass), upper(&matrices.stiffness))
+        };
+        let integrated: Vec<_> = if n_nodes > PARALLEL_ELEMENTS {
+            mass.rows_mut()
+                .par_chunks_mut(4)
+                .zip(stiffness.rows_mut().par_chunks_mut(4))
+                .zip(element_data.par_iter())
+                .map(one)
+                .collect()
+        } else {
+            mass.rows_mut()
+                .chunks_mut(4)
+                .zip(stiffness.rows_mut().chunks_mut(4))
+                .zip(element_data.iter())
+                .map(one)
+                .collect()
+        };
         let mut elements = Vec::with_capacity(n_nodes - 1);
-        for (e, (data, el, matrices)) in integrated.into_iter().enumerate() {
-            mass.add_element(4 * e, &matrices.mass);
-            stiffness.add_element(4 * e, &matrices.stiffness);
-            element_data.push(data);
+        for (e, (el, m_upper, k_upper)) in integrated.into_iter().enumerate() {
+            let top = 4 * e + 4;
+            for (band, [a44, a45, a55]) in [(&mut mass, m_upper), (&mut stiffness, k_upper)] {
+                band.add(top, top, a44);
+                band.add(top, top + 1, a45);
+                band.add(top + 1, top + 1, a55);
+            }
             elements.push(el);
         }
         let mut point_masses = Vec::new();
