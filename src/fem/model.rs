@@ -25,6 +25,9 @@ pub fn default_elements(modes: usize) -> usize {
     (10 * modes).max(30)
 }
 
+/// One row of a symmetric band: A[i][i + k], k = 0..=HALF_BAND.
+type BandRow = [f64; HALF_BAND + 1];
+
 /// Meshes with more nodes than this integrate their elements in parallel.
 const PARALLEL_ELEMENTS: usize = 1000;
 
@@ -216,7 +219,7 @@ impl BeamModel {
                     }
                 }
             }
-            let data = ElementData {
+            ElementData {
                 z_bottom_m: w[0],
                 length_m: w[1] - w[0],
                 outer_diameter_bottom_m: d0,
@@ -229,8 +232,7 @@ impl BeamModel {
                 density_kg_m3: shell.density_kg_m3,
                 timoshenko,
                 lining_coefficients,
-            };
-            data
+            }
         };
         let element_data: Vec<ElementData> = z_m.windows(2).map(data_of).collect();
         let mut mass = SymBand::zeros(4 * n_nodes - 2);
@@ -241,12 +243,9 @@ impl BeamModel {
         // are integrated and assembled independently (on all cores for fine meshes; small
         // meshes stay on the calling thread, which in a sweep is already one of many) and
         // the 6x6 matrices never leave the thread that computed them.
-        let one = |((m_rows, k_rows), data): (
-            (&mut [[f64; HALF_BAND + 1]], &mut [[f64; HALF_BAND + 1]]),
-            &ElementData,
-        )| {
+        let one = |((m_rows, k_rows), data): ((&mut [BandRow], &mut [BandRow]), &ElementData)| {
             let (el, matrices) = Element::integrate(data, data.length_m);
-            let own = |rows: &mut [[f64; HALF_BAND + 1]], a: &[[f64; 6]; 6]| {
+            let own = |rows: &mut [BandRow], a: &[[f64; 6]; 6]| {
                 for i in 0..4 {
                     for j in i..6 {
                         rows[i][j - i] += a[i][j];
