@@ -294,8 +294,8 @@ mod kernels {
     trait MulAdd {
         fn mul_add(a: f64, b: f64, c: f64) -> f64;
 
-        /// A hand-tiled band product for whole lanes of a four-row tile: returns how many
-        /// leading columns it formed (0: none, the portable tile does them all).
+        /// A hand-tiled band product of a four-row tile: returns how many leading columns
+        /// it formed (0: none, the portable tile does them all).
         #[inline(always)]
         fn band_tile(
             _coef: &[[f64; TILE_SPAN]; TILE_ROWS],
@@ -626,6 +626,10 @@ mod kernels {
             let local = i - r0;
             let ys = &mut y.data[local * p..(local + TILE_ROWS) * p];
             let done = M::band_tile(&coef, xs, p, ys);
+            if done == p {
+                i += TILE_ROWS;
+                continue;
+            }
             for c0 in (done..lanes_end).step_by(LANES) {
                 let mut acc = [[0.0; LANES]; TILE_ROWS];
                 for s in 0..TILE_SPAN {

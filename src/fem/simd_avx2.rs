@@ -15,8 +15,8 @@ use std::arch::x86_64::*;
 pub const ROWS: usize = 4;
 pub const SPAN: usize = ROWS + 2 * super::band::HALF_BAND;
 
-/// out (ROWS x p, row-major) = coef (ROWS x SPAN) * xs (SPAN x p, row-major), first
-/// `lanes_end` columns (a multiple of 4); the caller finishes the rest.
+/// out (ROWS x p, row-major) = coef (ROWS x SPAN) * xs (SPAN x p, row-major), all p
+/// columns (the last, partial lane with masked loads and stores); returns p.
 ///
 /// # Safety
 /// The CPU must support AVX2 and FMA.
@@ -64,7 +64,27 @@ pub unsafe fn band_tile(
         }
         c0 += 4;
     }
-    c0
+    let rest = p - c0;
+    if rest > 0 {
+        // Lanes 0..rest of the last group; masked lanes are neither read nor written.
+        let mask = _mm256_setr_epi64x(
+            -1,
+            if rest > 1 { -1 } else { 0 },
+            if rest > 2 { -1 } else { 0 },
+            0,
+        );
+        let mut acc = [_mm256_setzero_pd(); ROWS];
+        for s in 0..SPAN {
+            let x0 = _mm256_maskload_pd(xs.as_ptr().add(s * p + c0), mask);
+            for t in 0..ROWS {
+                acc[t] = _mm256_fmadd_pd(_mm256_set1_pd(coef[t][s]), x0, acc[t]);
+            }
+        }
+        for (t, a) in acc.iter().enumerate() {
+            _mm256_maskstore_pd(out.as_mut_ptr().add(t * p + c0), mask, *a);
+        }
+    }
+    p
 }
 
 /// Rows i..i+ROWS of (XA, XB) = (YA Q, YB Q) with Q laid out lane-major (`qt`, see
