@@ -222,6 +222,20 @@ const CHUNK_ROWS: usize = 4096;
 /// Blocks with at least this many entries use all cores.
 const PARALLEL_ENTRIES: usize = 1 << 18;
 
+/// One four-row tile of the Ritz update (X_A, X_B) = (Y_A Q, Y_B Q): `ya`, `yb` are 4 x p
+/// row-major, `xa`, `xb` 4 x k, `qt` is Q laid out lane-major (groups of four columns, each
+/// p rows of four). With `pair` false only X_A is formed.
+pub(crate) struct TimesTile<'a> {
+    pub ya: &'a [f64],
+    pub yb: &'a [f64],
+    pub qt: &'a [f64],
+    pub p: usize,
+    pub k: usize,
+    pub xa: &'a mut [f64],
+    pub xb: &'a mut [f64],
+    pub pair: bool,
+}
+
 /// A borrowed range of rows of a [`Block`].
 #[derive(Debug, Clone, Copy)]
 struct Rows<'a> {
@@ -282,7 +296,7 @@ pub fn band_times_block(a: &SymBand, x: &Block, y: &mut Block) {
 /// registers, compiled twice: for the x86-64 baseline and, chosen at run time when the CPU
 /// has them, for AVX2 with fused multiply-add. Results of the two differ only by rounding.
 mod kernels {
-    use super::{Rows, RowsMut, HALF_BAND};
+    use super::{Rows, RowsMut, TimesTile, HALF_BAND};
     use crate::fem::band::SymBand;
     #[cfg(target_arch = "x86_64")]
     use crate::fem::simd_avx2;
@@ -308,17 +322,7 @@ mod kernels {
 
         /// A hand-tiled four-row Ritz update; false when there is none.
         #[inline(always)]
-        #[allow(clippy::too_many_arguments)]
-        fn times_tile(
-            _ya: &[f64],
-            _yb: &[f64],
-            _qt: &[f64],
-            _p: usize,
-            _k: usize,
-            _xa: &mut [f64],
-            _xb: &mut [f64],
-            _pair: bool,
-        ) -> bool {
+        fn times_tile(_tile: TimesTile<'_>) -> bool {
             false
         }
     }
@@ -351,18 +355,9 @@ mod kernels {
         }
 
         #[inline(always)]
-        fn times_tile(
-            ya: &[f64],
-            yb: &[f64],
-            qt: &[f64],
-            p: usize,
-            k: usize,
-            xa: &mut [f64],
-            xb: &mut [f64],
-            pair: bool,
-        ) -> bool {
+        fn times_tile(tile: TimesTile<'_>) -> bool {
             // SAFETY: as for `band_tile`.
-            unsafe { simd_avx2::times_tile(ya, yb, qt, p, k, xa, xb, pair) };
+            unsafe { simd_avx2::times_tile(tile) };
             true
         }
     }
@@ -530,7 +525,17 @@ mod kernels {
             } else {
                 (&mut xa.data[i * k..(i + R) * k], &mut [][..])
             };
-            if M::times_tile(ra, rb, qt, p, k, oa, ob, PAIR) {
+            let tile = TimesTile {
+                ya: ra,
+                yb: rb,
+                qt,
+                p,
+                k,
+                xa: oa,
+                xb: ob,
+                pair: PAIR,
+            };
+            if M::times_tile(tile) {
                 return;
             }
         }

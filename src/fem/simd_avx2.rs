@@ -11,6 +11,8 @@
 
 use std::arch::x86_64::*;
 
+use super::block::TimesTile;
+
 /// Band rows per tile and the span of input rows they touch.
 pub const ROWS: usize = 4;
 pub const SPAN: usize = ROWS + 2 * super::band::HALF_BAND;
@@ -87,24 +89,22 @@ pub unsafe fn band_tile(
     p
 }
 
-/// Rows i..i+ROWS of (XA, XB) = (YA Q, YB Q) with Q laid out lane-major (`qt`, see
-/// `block.rs`): `ya`, `yb` are ROWS x p row-major, `xa`, `xb` ROWS x k. With `pair` false
-/// only XA is formed.
+/// One tile of the Ritz update (see [`TimesTile`]).
 ///
 /// # Safety
 /// The CPU must support AVX2 and FMA.
 #[target_feature(enable = "avx2,fma")]
-#[allow(clippy::too_many_arguments)]
-pub unsafe fn times_tile(
-    ya: &[f64],
-    yb: &[f64],
-    qt: &[f64],
-    p: usize,
-    k: usize,
-    xa: &mut [f64],
-    xb: &mut [f64],
-    pair: bool,
-) {
+pub unsafe fn times_tile(tile: TimesTile<'_>) {
+    let TimesTile {
+        ya,
+        yb,
+        qt,
+        p,
+        k,
+        xa,
+        xb,
+        pair,
+    } = tile;
     let groups = k.div_ceil(4);
     assert!(ya.len() >= ROWS * p && qt.len() >= groups * p * 4 && xa.len() >= ROWS * k);
     assert!(!pair || (yb.len() >= ROWS * p && xb.len() >= ROWS * k));
