@@ -58,15 +58,6 @@ impl SymBand {
         }
     }
 
-    /// Adds a 6x6 element matrix whose first dof is `first`.
-    pub fn add_element(&mut self, first: usize, m: &[[f64; 6]; 6]) {
-        for (i, row) in m.iter().enumerate() {
-            for (j, v) in row.iter().enumerate().skip(i) {
-                self.rows[first + i][j - i] += v;
-            }
-        }
-    }
-
     /// y = A x.
     #[track_caller]
     pub fn mul_vec(&self, x: &[f64], y: &mut [f64]) {
