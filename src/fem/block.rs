@@ -295,7 +295,7 @@ pub fn band_times_block(a: &SymBand, x: &Block, y: &mut Block) {
 /// The dense inner loops, written over lanes of four columns with the accumulators held in
 /// registers, compiled twice: for the x86-64 baseline and, chosen at run time when the CPU
 /// has them, for AVX2 with fused multiply-add. Results of the two differ only by rounding.
-mod kernels {
+pub(crate) mod kernels {
     use super::{Rows, RowsMut, TimesTile, HALF_BAND};
     use crate::fem::band::SymBand;
     #[cfg(target_arch = "x86_64")]
@@ -363,7 +363,7 @@ mod kernels {
     }
 
     #[cfg(target_arch = "x86_64")]
-    fn has_fma() -> bool {
+    pub(crate) fn has_fma() -> bool {
         use std::sync::OnceLock;
         static HAS: OnceLock<bool> = OnceLock::new();
         *HAS.get_or_init(|| {

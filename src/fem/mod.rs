@@ -15,6 +15,7 @@ pub mod element;
 pub mod flexibility;
 pub mod gauss;
 pub mod model;
+pub mod operator;
 #[cfg(target_arch = "x86_64")]
 mod simd_avx2;
 pub mod subspace;

@@ -22,8 +22,8 @@
 use nalgebra::DMatrix;
 
 use super::block::{band_times_block, Block};
-use super::flexibility::apply_inverse_stiffness_block;
 use super::model::BeamModel;
+use super::operator::{apply_and_mass, ResidualSums};
 use super::SolverError;
 
 /// Converged lowest eigenpairs of one beam model.
@@ -52,37 +52,6 @@ const VECTOR_TOLERANCE: f64 = 1e-7;
 /// Relative residual the guard mode (the one above the last wanted) must reach: it only
 /// places the Sturm shift, and its eigenvalue error is ~ the square of this.
 const GUARD_TOLERANCE: f64 = 1e-4;
-
-/// Relative residuals of the first `k` columns of the Ritz block `x` (values `values`) in
-/// the flexibility form, which is exact:
-/// |K^-1 M x - x / lambda|_M / |x / lambda|_M.
-///
-/// `z` = K^-1 (M x) and `mz` = M z are the next iteration's first half, so the check costs
-/// one pass over the columns and no extra operator application: M r = M z - (M x) / lambda.
-fn ritz_residuals(
-    x: &Block,
-    mx: &Block,
-    z: &Block,
-    mz: &Block,
-    values: &[f64],
-    k: usize,
-) -> Vec<f64> {
-    let p = x.width;
-    let mut rr = vec![0.0; k];
-    let mut xx = vec![0.0; k];
-    for d in 0..x.dofs {
-        let (xr, mxr, zr, mzr) = (x.row(d), mx.row(d), z.row(d), mz.row(d));
-        for c in 0..k {
-            let inv = 1.0 / values[c];
-            rr[c] += (zr[c] - xr[c] * inv) * (mzr[c] - mxr[c] * inv);
-            xx[c] += xr[c] * mxr[c];
-        }
-    }
-    debug_assert!(p >= k);
-    (0..k)
-        .map(|c| rr[c].max(0.0).sqrt() * values[c] / xx[c].sqrt())
-        .collect()
-}
 
 /// Solves the small pencil kr q = lambda mr q; returns ascending eigenvalues and mr-normalised
 /// vectors.
@@ -266,23 +235,24 @@ pub fn lowest_modes_from(
         // Each cycle applies K^-1 M twice before one Rayleigh-Ritz step: the spectrum ratio
         // lambda_i / lambda_(p+1) is squared per cycle for one more O(N p) application,
         // while the projections cost O(N p^2).
-        apply_inverse_stiffness_block(model, &mx, &mut w);
-        band_times_block(&model.mass, &w, &mut mz);
         let from_ritz = ritz.is_some();
         if let Some(values) = ritz.take() {
-            let residuals = ritz_residuals(&x, &mx, &w, &mz, &values, checked);
+            let mut sums = ResidualSums::new(&x, &mx, &values[..checked]);
+            apply_and_mass(model, &mx, &mut w, &mut mz, Some(&mut sums));
+            let residuals = sums.relative();
             let wanted = residuals[..n].iter().copied().fold(0.0, f64::max);
             if wanted < VECTOR_TOLERANCE && residuals[n] < GUARD_TOLERANCE {
                 break (values, wanted);
             }
+        } else {
+            apply_and_mass(model, &mx, &mut w, &mut mz, None);
         }
         if iterations >= MAX_ITERATIONS {
             return Err(SolverError::NoConvergence { iterations });
         }
         iterations += 1;
         if from_ritz {
-            apply_inverse_stiffness_block(model, &mz, &mut w);
-            band_times_block(&model.mass, &w, &mut my);
+            apply_and_mass(model, &mz, &mut w, &mut my, None);
         } else {
             // From arbitrary start vectors a second application would let the lowest mode
             // swamp every column (by (lambda_p / lambda_1)^2); one Rayleigh-Ritz step first
