@@ -29,6 +29,7 @@
 //! Integrals over the taper use Gauss-Legendre rules whose order grows with the element's
 //! property variation, so they are exact to rounding, not midpoint approximations.
 
+use super::compliance_fit;
 use super::gauss;
 
 /// Section properties along one element as functions of the local coordinate s in [0, h].
@@ -92,6 +93,62 @@ fn compliance_at<P: ElementProperties>(p: &P, s_m: f64, points: usize) -> Compli
         c.g1 += wt * u * inv_kga;
     }
     c
+}
+
+/// Most mass Gauss points (see [`mass_points`]).
+const MAX_MASS_POINTS: usize = 8;
+
+/// The compliance integrals at the element end and at the mass Gauss points `xs` (on
+/// [-1, 1]): interpolated from a few samples for nearly uniform elements
+/// ([`compliance_fit`]), by nested Gauss rules otherwise. Both are exact to rounding.
+fn compliances<P: ElementProperties>(
+    p: &P,
+    h: f64,
+    variation: f64,
+    xs: &[f64],
+) -> (Compliance, [Compliance; MAX_MASS_POINTS]) {
+    let mut at = [Compliance::default(); MAX_MASS_POINTS];
+    match compliance_fit::nodes_for(variation) {
+        Some(m) => {
+            let fit = compliance_fit::fit(m, xs.len());
+            let mut rates = [(0.0, 0.0); compliance_fit::MAX_NODES];
+            for (rate, x) in rates.iter_mut().zip(&fit.nodes) {
+                *rate = p.compliance_rates(h * x);
+            }
+            let h2 = h * h;
+            let scales = [h, h2, h2 * h, h2 * h2];
+            let integrals = |w: &[[f64; compliance_fit::MAX_NODES]; 4]| {
+                let mut f = [0.0; 4];
+                let (mut g, mut g1) = (0.0, 0.0);
+                for (j, &(r, q)) in rates.iter().enumerate().take(m) {
+                    for k in 0..4 {
+                        f[k] += w[k][j] * r;
+                    }
+                    g += w[0][j] * q;
+                    g1 += w[1][j] * q;
+                }
+                Compliance {
+                    f0: scales[0] * f[0],
+                    f1: scales[1] * f[1],
+                    f2: scales[2] * f[2],
+                    f3: scales[3] * f[3],
+                    g: scales[0] * g,
+                    g1: scales[1] * g1,
+                }
+            };
+            for (c, w) in at.iter_mut().zip(&fit.weights[..xs.len()]) {
+                *c = integrals(w);
+            }
+            (integrals(&fit.weights[xs.len()]), at)
+        }
+        None => {
+            let np = compliance_points(variation);
+            for (c, x) in at.iter_mut().zip(xs) {
+                *c = compliance_at(p, 0.5 * h * (1.0 + x), np);
+            }
+            (compliance_at(p, h, np), at)
+        }
+    }
 }
 
 /// Gauss points of the mass integral: the integrand is m(s) (degree <= 2) times products of
@@ -210,8 +267,8 @@ impl Element {
     /// Integrates the element of length `h` with properties `p`.
     pub fn integrate<P: ElementProperties>(p: &P, h: f64) -> (Element, ElementMatrices) {
         let variation = p.relative_variation();
-        let np = compliance_points(variation);
-        let end = compliance_at(p, h, np);
+        let (xs, ws) = gauss::rule(mass_points(variation));
+        let (end, at_points) = compliances(p, h, variation, xs);
         let flexibility = [
             h * h * end.f0 - 2.0 * h * end.f1 + end.f2 + end.g,
             h * end.f0 - end.f1,
@@ -227,15 +284,13 @@ impl Element {
             }
         }
         let ends = BUBBLE_LOADS.map(|(q, mu)| bubble_end_values(end, h, q, mu));
-        let (xs, ws) = gauss::rule(mass_points(variation));
         // work[i][j] = int (q_i w_j + mu_i theta_j) ds: the bubble stiffness block before
         // scaling (symmetric by Betti); scale[j] = mean deflection (j = 0) or rotation (j = 1).
         let mut work = [[0.0; 2]; 2];
         let mut samples = Vec::with_capacity(xs.len());
-        for (x, w) in xs.iter().zip(ws) {
+        for ((x, w), &c) in xs.iter().zip(ws).zip(&at_points) {
             let s = 0.5 * h * (1.0 + x);
             let wt = 0.5 * h * w;
-            let c = compliance_at(p, s, np);
             let (nw, nt) = shapes_at(c, s, h, &r);
             let mut bw = [0.0; 2];
             let mut bt = [0.0; 2];
@@ -293,10 +348,17 @@ impl Element {
             ];
             let m = p.mass_per_length_kg_m(s) * wt;
             let j_rot = p.rotary_inertia_kg_m(s) * wt;
+            // Upper triangle only; mirrored below (the matrix is symmetric by construction).
             for i in 0..6 {
-                for j in 0..6 {
-                    mass[i][j] += m * sw[i] * sw[j] + j_rot * st[i] * st[j];
+                let (mi, ji) = (m * sw[i], j_rot * st[i]);
+                for j in i..6 {
+                    mass[i][j] += mi * sw[j] + ji * st[j];
                 }
+            }
+        }
+        for i in 1..6 {
+            for j in 0..i {
+                mass[i][j] = mass[j][i];
             }
         }
         let mut stiffness = [[0.0; 6]; 6];
@@ -519,5 +581,102 @@ mod tests {
             }
         }
         assert_relative_eq!(total, p.m * h, max_relative = 1e-13);
+    }
+
+    /// A tapered annulus-like element: D and t linear in s.
+    struct Tapered {
+        h: f64,
+        d0: f64,
+        d1: f64,
+        t0: f64,
+        t1: f64,
+        /// Reported variation; a large value forces the nested Gauss rules.
+        reported: Option<f64>,
+    }
+
+    impl Tapered {
+        fn dt(&self, s: f64) -> (f64, f64) {
+            let x = s / self.h;
+            (
+                self.d0 + x * (self.d1 - self.d0),
+                self.t0 + x * (self.t1 - self.t0),
+            )
+        }
+        fn inertia(&self, s: f64) -> f64 {
+            let (d, t) = self.dt(s);
+            let di = d - 2.0 * t;
+            std::f64::consts::PI / 64.0 * (d.powi(4) - di.powi(4))
+        }
+        fn area(&self, s: f64) -> f64 {
+            let (d, t) = self.dt(s);
+            std::f64::consts::PI * t * (d - t)
+        }
+    }
+
+    impl ElementProperties for Tapered {
+        fn bending_stiffness_nm2(&self, s: f64) -> f64 {
+            3.2e10 * self.inertia(s)
+        }
+        fn shear_stiffness_n(&self, s: f64) -> f64 {
+            0.5 * 1.33e10 * self.area(s)
+        }
+        fn mass_per_length_kg_m(&self, s: f64) -> f64 {
+            2500.0 * self.area(s) + 400.0
+        }
+        fn rotary_inertia_kg_m(&self, s: f64) -> f64 {
+            2500.0 * self.inertia(s)
+        }
+        fn relative_variation(&self) -> f64 {
+            let dd = (self.d1 - self.d0).abs() / self.d0.min(self.d1);
+            let dt = (self.t1 - self.t0).abs() / self.t0.min(self.t1);
+            self.reported.unwrap_or(3.0 * dd + dt)
+        }
+    }
+
+    #[test]
+    fn interpolated_compliance_matches_nested_gauss_rules() {
+        // Two independent quadratures of the same integrals: the interpolated path
+        // (compliance_fit) against nested Gauss-Legendre rules of 9+ points, which are exact
+        // to rounding for these smooth integrands.
+        for rel in [0.0, 1e-8, 3e-6, 5e-5, 2e-4, 6e-4, 2e-3] {
+            let (h, d0, t0) = (0.4, 12.0, 0.35);
+            let fast = Tapered {
+                h,
+                d0,
+                d1: d0 * (1.0 - rel / 4.0),
+                t0,
+                t1: t0 * (1.0 - rel / 4.0),
+                reported: None,
+            };
+            assert!(compliance_fit::nodes_for(fast.relative_variation()).is_some());
+            let nested = Tapered {
+                reported: Some(0.05),
+                ..fast
+            };
+            let (ef, mf) = Element::integrate(&fast, h);
+            let (en, mn) = Element::integrate(&nested, h);
+            for k in 0..3 {
+                assert_relative_eq!(ef.flexibility[k], en.flexibility[k], max_relative = 1e-13);
+                assert_relative_eq!(
+                    ef.bubble_flexibility[k],
+                    en.bubble_flexibility[k],
+                    max_relative = 1e-11
+                );
+            }
+            let scale = |a: &[[f64; 6]; 6]| a.iter().flatten().fold(0.0f64, |m, v| m.max(v.abs()));
+            let (sm, sk) = (scale(&mn.mass), scale(&mn.stiffness));
+            for i in 0..6 {
+                for j in 0..6 {
+                    assert!(
+                        (mf.mass[i][j] - mn.mass[i][j]).abs() <= 1e-13 * sm,
+                        "M {i}{j} at {rel}"
+                    );
+                    assert!(
+                        (mf.stiffness[i][j] - mn.stiffness[i][j]).abs() <= 1e-11 * sk,
+                        "K {i}{j} at {rel}"
+                    );
+                }
+            }
+        }
     }
 }

@@ -11,6 +11,7 @@
 
 pub mod band;
 pub mod block;
+pub mod compliance_fit;
 pub mod element;
 pub mod flexibility;
 pub mod gauss;
