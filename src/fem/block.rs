@@ -54,6 +54,20 @@ impl Block {
         out
     }
 
+    /// The first `k` columns, compacted in place (no second block).
+    pub fn into_leading(mut self, k: usize) -> Block {
+        let p = self.width;
+        assert!(k <= p);
+        // Row i moves from i p to i k <= i p: moving rows in increasing order never
+        // overwrites a row not yet moved.
+        for i in 0..self.dofs {
+            self.data.copy_within(i * p..i * p + k, i * k);
+        }
+        self.data.truncate(self.dofs * k);
+        self.width = k;
+        self
+    }
+
     /// A^T B (p x q) for blocks of the same length.
     #[track_caller]
     pub fn gram(&self, other: &Block) -> DMatrix<f64> {

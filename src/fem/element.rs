@@ -54,15 +54,35 @@ pub trait ElementProperties {
     }
 }
 
-/// The cumulative compliance integrals at one point s of the element.
+/// The cumulative compliance integrals at one point s of the element:
+/// F_k(s) = int_0^s u^k / EI(u) du (k = 0..3), G(s) = int_0^s du / kGA(u),
+/// G1(s) = int_0^s u du / kGA(u).
 #[derive(Debug, Clone, Copy, Default, PartialEq)]
-struct Compliance {
+pub struct Compliance {
     f0: f64,
     f1: f64,
     f2: f64,
     f3: f64,
     g: f64,
     g1: f64,
+}
+
+impl Compliance {
+    /// These integrals (over [0, s]) followed by `next`, the integrals of the same
+    /// properties over the adjacent interval [s, s + h'] taken about its own start:
+    /// (a + v)^k expanded binomially with a = s. Every term is positive, so nothing cancels.
+    pub fn extended(&self, s_m: f64, next: &Compliance) -> Compliance {
+        let a = s_m;
+        let a2 = a * a;
+        Compliance {
+            f0: self.f0 + next.f0,
+            f1: self.f1 + a * next.f0 + next.f1,
+            f2: self.f2 + a2 * next.f0 + 2.0 * a * next.f1 + next.f2,
+            f3: self.f3 + a2 * a * next.f0 + 3.0 * a2 * next.f1 + 3.0 * a * next.f2 + next.f3,
+            g: self.g + next.g,
+            g1: self.g1 + a * next.g + next.g1,
+        }
+    }
 }
 
 /// Number of Gauss points for the compliance integrals. The integrands behave like
@@ -179,6 +199,8 @@ pub struct Element {
     bubbles: [[f64; 3]; 2],
     /// Inverse of the 2x2 bubble stiffness block (symmetric: [b11, b12, b22]).
     pub bubble_flexibility: [f64; 3],
+    /// The compliance integrals over the whole element (about its lower node).
+    pub compliance: Compliance,
 }
 
 /// The element's 6x6 matrices over (w_a, theta_a, q1, q2, w_b, theta_b); assembled into the
@@ -381,6 +403,7 @@ impl Element {
                     [ends[1].0, ends[1].1, scale[1]],
                 ],
                 bubble_flexibility,
+                compliance: end,
             },
             ElementMatrices { stiffness, mass },
         )
@@ -389,11 +412,27 @@ impl Element {
     /// Displacement and rotation shape functions (N_w, N_theta) over
     /// (w_a, theta_a, q1, q2, w_b, theta_b) at local coordinate s.
     pub fn shapes<P: ElementProperties>(&self, p: &P, s_m: f64) -> ([f64; 6], [f64; 6]) {
-        let h = self.length_m;
         let np = compliance_points(p.relative_variation());
-        let r = end_load_map(self.flexibility, h);
         let c = compliance_at(p, s_m, np);
-        let (nw, nt) = shapes_at(c, s_m, h, &r);
+        self.shapes_with(c, s_m, &self.end_load_map())
+    }
+
+    /// The compliance integrals of `p` over [0, s] by Gauss rules (the start of a run of
+    /// [`Compliance::extended`] steps).
+    pub fn compliance_to<P: ElementProperties>(p: &P, s_m: f64) -> Compliance {
+        compliance_at(p, s_m, compliance_points(p.relative_variation()))
+    }
+
+    /// The map from nodal dofs to end loads (see [`Element::shapes_with`]).
+    pub fn end_load_map(&self) -> [[f64; 4]; 2] {
+        end_load_map(self.flexibility, self.length_m)
+    }
+
+    /// [`Element::shapes`] at s from the compliance integrals `c` over [0, s] and the
+    /// element's [`Element::end_load_map`] `r`.
+    pub fn shapes_with(&self, c: Compliance, s_m: f64, r: &[[f64; 4]; 2]) -> ([f64; 6], [f64; 6]) {
+        let h = self.length_m;
+        let (nw, nt) = shapes_at(c, s_m, h, r);
         let mut bw = [0.0; 2];
         let mut bt = [0.0; 2];
         for (j, (q, mu)) in BUBBLE_LOADS.iter().enumerate() {

@@ -28,7 +28,7 @@ pub use model::BeamModel;
 
 use crate::case::{Case, Stage};
 use block::Block;
-pub use subspace::{lowest_modes, lowest_modes_from, Solution};
+pub use subspace::{lowest_modes, lowest_modes_from, Solution, SturmCount};
 
 /// Why the eigen-solver refused to report modes (never wrong numbers instead).
 #[derive(Debug, Error, Clone, PartialEq)]
@@ -76,16 +76,40 @@ pub fn solve_stage(
         let solution = lowest_modes(&fine, modes)?;
         return Ok((fine, solution));
     }
-    let wanted = modes + 4;
+    // The fine block: the wanted modes and at least one guard, rounded up to whole
+    // four-lane chunks for the kernels.
+    let wanted = (modes + 2).div_ceil(4) * 4;
     let coarse = BeamModel::build(case, stage, Some(COARSE_ELEMENTS), wanted);
     let coarse_solution = lowest_modes(&coarse, wanted)?;
-    let start = interpolate_modes(&coarse, &coarse_solution.vectors, &fine);
-    let solution = lowest_modes_from(&fine, modes, start)?;
+    // The coarse eigenvalues agree with the fine ones to far better than their gaps, so
+    // the Sturm count of the fine model can run on another core at a shift placed from
+    // them while the fine iteration runs; `verify` recounts if the shift turns out not to
+    // separate the fine eigenvalues.
+    let (lower, upper) = (
+        coarse_solution.eigenvalues[modes - 1],
+        coarse_solution.eigenvalues[modes],
+    );
+    let shift = (lower * upper).sqrt();
+    let (count, converged) = rayon::join(
+        || fine.stiffness.negative_pivots_shifted(shift, &fine.mass),
+        || {
+            let start = interpolate_modes(&coarse, &coarse_solution.vectors, &fine);
+            subspace::iterate(&fine, modes, start)
+        },
+    );
+    let solution = subspace::verify(&fine, modes, converged?, Some(SturmCount { shift, count }))?;
     Ok((fine, solution))
 }
 
 /// Evaluates the coarse model's vectors at the fine model's nodes with the coarse elements'
-/// exact shapes (fine bubbles start at zero). Fine nodes are independent, so large meshes
+/// exact shapes (fine bubbles start at zero).
+///
+/// The shapes at s need the compliance integrals of the coarse element over [0, s]. Both
+/// meshes have nodes on every station, so each fine element inside a coarse one has the same
+/// (linear) section data and its own integrals are a piece of the coarse ones: walking up the
+/// fine nodes of a coarse element, the integrals grow by each fine element's, shifted to the
+/// coarse element's origin ([`element::Compliance::extended`]). Only the first piece of each
+/// coarse element is integrated afresh. Coarse elements are independent, so large meshes
 /// use all cores.
 pub fn interpolate_modes(coarse: &BeamModel, vectors: &Block, fine: &BeamModel) -> Block {
     let width = vectors.width;
@@ -94,31 +118,105 @@ pub fn interpolate_modes(coarse: &BeamModel, vectors: &Block, fine: &BeamModel) 
         return out;
     }
     let n_coarse = coarse.elements.len();
-    // Node i owns rows 4i..4i+4 (w, theta and the bubbles of element i, left at zero).
-    let node = |(i, rows): (usize, &mut [f64])| {
-        let z = fine.z_m[i];
-        // The coarse element holding z: the last one whose bottom node is below z.
-        let e = coarse.z_m[1..n_coarse]
-            .partition_point(|&zc| zc < z)
-            .min(n_coarse - 1);
-        let s = (z - coarse.z_m[e]).clamp(0.0, coarse.elements[e].length_m);
-        let (nw, nt) = coarse.elements[e].shapes(&coarse.element_data[e], s);
-        for c in 0..width {
-            let (mut w, mut t) = (0.0, 0.0);
-            for k in 0..6 {
-                let u = vectors.get(4 * e + k, c);
-                w += nw[k] * u;
-                t += nt[k] * u;
+    let n_nodes = fine.z_m.len();
+    // Fine nodes with z_E <= z < z_(E+1) belong to coarse element E; the top node to the last.
+    let first_node = |e: usize| match e {
+        0 => 0,
+        e if e >= n_coarse => n_nodes,
+        e => fine.z_m.partition_point(|&z| z < coarse.z_m[e]),
+    };
+    // Node i owns rows 4i..4i + 4 (w, theta and the bubbles of element i, left at zero); the
+    // top node has only its w and theta rows.
+    let mut pieces = Vec::with_capacity(n_coarse);
+    let mut rest = &mut out.data[..];
+    let mut row_end_prev = 0;
+    for e in 0..n_coarse {
+        let (start, end) = (first_node(e), first_node(e + 1));
+        let row_end = (4 * end).min(fine.dofs());
+        let (piece, tail) = rest.split_at_mut((row_end - row_end_prev) * width);
+        pieces.push((e, start..end, piece));
+        rest = tail;
+        row_end_prev = row_end;
+    }
+    let fill = |(e, nodes, piece): (usize, std::ops::Range<usize>, &mut [f64])| {
+        let el = &coarse.elements[e];
+        let data = &coarse.element_data[e];
+        let r = el.end_load_map();
+        let base = coarse.z_m[e];
+        let mut previous: Option<(f64, element::Compliance)> = None;
+        for (k, j) in nodes.enumerate() {
+            let s = (fine.z_m[j] - base).clamp(0.0, el.length_m);
+            let c = match previous {
+                None => element::Element::compliance_to(data, s),
+                Some((s_prev, c_prev)) => c_prev.extended(s_prev, &fine.elements[j - 1].compliance),
+            };
+            previous = Some((s, c));
+            let (nw, nt) = el.shapes_with(c, s, &r);
+            let rows = &mut piece[4 * k * width..(4 * k + 2) * width];
+            for col in 0..width {
+                let (mut w, mut t) = (0.0, 0.0);
+                for i in 0..6 {
+                    let u = vectors.get(4 * e + i, col);
+                    w += nw[i] * u;
+                    t += nt[i] * u;
+                }
+                rows[col] = w;
+                rows[width + col] = t;
             }
-            rows[c] = w;
-            rows[width + c] = t;
         }
     };
-    let chunk = 4 * width;
-    if fine.z_m.len() > PARALLEL_NODES {
-        out.data.par_chunks_mut(chunk).enumerate().for_each(node);
+    if n_nodes > PARALLEL_NODES {
+        pieces.into_par_iter().for_each(fill);
     } else {
-        out.data.chunks_mut(chunk).enumerate().for_each(node);
+        pieces.into_iter().for_each(fill);
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn interpolation_by_extended_compliance_matches_direct_shapes() {
+        // The reference is each coarse element's exact shapes evaluated directly (its own
+        // Gauss rules over [0, s]) at every fine node.
+        let case = crate::input::demo_case();
+        for stage in &case.stages {
+            let coarse = BeamModel::build(&case, stage, Some(30), 3);
+            let fine = BeamModel::build(&case, stage, Some(1234), 3);
+            let width = 3;
+            let mut vectors = Block::zeros(coarse.dofs(), width);
+            for (i, v) in vectors.data.iter_mut().enumerate() {
+                *v = ((i * 7919 % 1000) as f64 / 500.0 - 1.0) * 1e-3;
+            }
+            let out = interpolate_modes(&coarse, &vectors, &fine);
+            let n_coarse = coarse.elements.len();
+            let mut largest = 0.0f64;
+            let mut worst = 0.0f64;
+            for (i, &z) in fine.z_m.iter().enumerate() {
+                let e = coarse.z_m[1..n_coarse]
+                    .partition_point(|&zc| zc <= z)
+                    .min(n_coarse - 1);
+                let s = (z - coarse.z_m[e]).clamp(0.0, coarse.elements[e].length_m);
+                let (nw, nt) = coarse.elements[e].shapes(&coarse.element_data[e], s);
+                for c in 0..width {
+                    let (mut w, mut t) = (0.0, 0.0);
+                    for k in 0..6 {
+                        w += nw[k] * vectors.get(4 * e + k, c);
+                        t += nt[k] * vectors.get(4 * e + k, c);
+                    }
+                    largest = largest.max(w.abs());
+                    worst = worst.max((out.get(4 * i, c) - w).abs());
+                    worst =
+                        worst.max((out.get(4 * i + 1, c) - t).abs() * coarse.elements[e].length_m);
+                }
+            }
+            assert!(
+                worst <= 1e-12 * largest,
+                "stage {}: {worst:e} vs {largest:e}",
+                stage.name
+            );
+        }
+    }
 }

@@ -205,11 +205,86 @@ pub fn lowest_modes(model: &BeamModel, n: usize) -> Result<Solution, SolverError
 
 /// The lowest `n` eigenpairs of the model, iterating from the given start block (width > n;
 /// removed base dofs are cleared).
-pub fn lowest_modes_from(
+pub fn lowest_modes_from(model: &BeamModel, n: usize, x: Block) -> Result<Solution, SolverError> {
+    let converged = iterate(model, n, x)?;
+    verify(model, n, converged, None)
+}
+
+/// A Sturm count made before the solve finished: `count` eigenvalues lie below `shift`
+/// (rad/s)^2.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SturmCount {
+    pub shift: f64,
+    pub count: usize,
+}
+
+/// Converged Ritz pairs (all p of them), not yet checked for completeness.
+#[derive(Debug, Clone)]
+pub struct Converged {
+    values: Vec<f64>,
+    x: Block,
+    max_residual: f64,
+    iterations: usize,
+}
+
+/// The completeness check and the result. `counted` is a Sturm count made independently (at
+/// a shift placed from a coarser model, on another core); it is used when its shift lies
+/// clearly between the last wanted and the guard Ritz value, else the count is made here at
+/// their geometric mean.
+pub fn verify(
     model: &BeamModel,
     n: usize,
-    mut x: Block,
+    converged: Converged,
+    counted: Option<SturmCount>,
 ) -> Result<Solution, SolverError> {
+    let Converged {
+        values,
+        x,
+        max_residual,
+        iterations,
+    } = converged;
+    let phi = x.into_leading(n);
+    // The guard value is accurate to ~GUARD_TOLERANCE^2, the wanted ones far better.
+    let inside = |s: f64| values[n - 1] * (1.0 + 1e-6) < s && s < values[n] * (1.0 - 1e-6);
+    let SturmCount {
+        shift,
+        count: sturm_count,
+    } = match counted {
+        Some(c) if inside(c.shift) => c,
+        _ => {
+            // Sturm count at a shift between the last wanted and the next eigenvalue.
+            let shift = (values[n - 1] * values[n]).sqrt();
+            SturmCount {
+                shift,
+                count: model.stiffness.negative_pivots_shifted(shift, &model.mass),
+            }
+        }
+    };
+    if sturm_count != n {
+        return Err(SolverError::Incomplete {
+            expected: n,
+            counted: sturm_count,
+            shift,
+        });
+    }
+    if max_residual > 1e-6 {
+        return Err(SolverError::Residual {
+            residual: max_residual,
+        });
+    }
+    Ok(Solution {
+        eigenvalues: values[..n].to_vec(),
+        vectors: phi,
+        sturm_count,
+        shift,
+        max_relative_residual: max_residual,
+        iterations,
+    })
+}
+
+/// Subspace iteration from the start block `x` (width > n; removed base dofs are cleared)
+/// until the n wanted Ritz pairs and the guard have converged.
+pub fn iterate(model: &BeamModel, n: usize, mut x: Block) -> Result<Converged, SolverError> {
     let free = model.free_dofs();
     if n == 0 || n >= free || x.width <= n || x.width > free {
         return Err(SolverError::TooFewDofs {
@@ -259,8 +334,9 @@ pub fn lowest_modes_from(
             // turns the columns into near-eigenvectors, which K^-1 M only rescales. Here
             // Y = Z = K^-1 (M X), so M Y is the block just computed and the right-hand side
             // of the projection is M X.
+            // (Swapped, not copied: M X is rewritten by the Ritz update below.)
             std::mem::swap(&mut my, &mut mz);
-            mz.data.copy_from_slice(&mx.data);
+            std::mem::swap(&mut mz, &mut mx);
         }
         let y = &mut w;
         // Y = K^-1 (M Z), so Y^T (M Z) = Y^T K Y: the projected stiffness without K.
@@ -289,28 +365,10 @@ pub fn lowest_modes_from(
         y.times_pair(&my, &q, &mut x, &mut mx);
         ritz = Some(vals);
     };
-    let phi = x.leading(n);
-    // Sturm count at a shift between the last wanted and the next eigenvalue.
-    let shift = (values[n - 1] * values[n]).sqrt();
-    let sturm_count = model.stiffness.negative_pivots_shifted(shift, &model.mass);
-    if sturm_count != n {
-        return Err(SolverError::Incomplete {
-            expected: n,
-            counted: sturm_count,
-            shift,
-        });
-    }
-    if max_residual > 1e-6 {
-        return Err(SolverError::Residual {
-            residual: max_residual,
-        });
-    }
-    Ok(Solution {
-        eigenvalues: values[..n].to_vec(),
-        vectors: phi,
-        sturm_count,
-        shift,
-        max_relative_residual: max_residual,
+    Ok(Converged {
+        values,
+        x,
+        max_residual,
         iterations,
     })
 }
