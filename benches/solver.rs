@@ -6,7 +6,10 @@
 use std::time::{Duration, Instant};
 
 use stackwake::case::*;
-use stackwake::fem::{solve_stage, BeamModel};
+use stackwake::fem::{
+    fine_block_width, interpolate_modes, lowest_modes, solve_stage, subspace, BeamModel,
+    SturmCount, COARSE_ELEMENTS,
+};
 
 fn case() -> Case {
     let stations = [(0.0, 16.0, 0.55), (60.0, 13.0, 0.40), (180.0, 9.0, 0.22)];
@@ -151,6 +154,7 @@ fn main() {
         ratios[0],
         ratios[ROUNDS - 1]
     );
+    phases(&case, &stage);
     let (_, default) = time(51, || {
         std::hint::black_box(solve_stage(&case, &stage, None, 3).expect("solve"));
     });
@@ -158,4 +162,51 @@ fn main() {
         "default mesh, 3 modes (one stage analysis): {:.3} ms",
         default.as_secs_f64() * 1e3
     );
+}
+
+/// Where the time of a 20 000-element solve goes: the steps of `solve_stage` run one after
+/// the other (in `solve_stage` the Sturm count overlaps the interpolation and iteration on
+/// the other core), medians of 9 runs.
+fn phases(case: &Case, stage: &Stage) {
+    let modes = 10;
+    let wanted = fine_block_width(modes);
+    let mut rows: Vec<(&str, Vec<f64>)> = [
+        "fine model build",
+        "coarse model build + solve",
+        "start vectors (interpolation)",
+        "fine iteration",
+        "Sturm count",
+        "check + compaction",
+    ]
+    .into_iter()
+    .map(|name| (name, Vec::new()))
+    .collect();
+    for _ in 0..9 {
+        let mut marks = vec![Instant::now()];
+        let fine = BeamModel::build(case, stage, Some(20_000), modes);
+        marks.push(Instant::now());
+        let coarse = BeamModel::build(case, stage, Some(COARSE_ELEMENTS), wanted);
+        let coarse_solution = lowest_modes(&coarse, wanted).expect("coarse");
+        marks.push(Instant::now());
+        let start = interpolate_modes(&coarse, &coarse_solution.vectors, &fine);
+        marks.push(Instant::now());
+        let converged = subspace::iterate(&fine, modes, start).expect("fine");
+        marks.push(Instant::now());
+        let shift =
+            (coarse_solution.eigenvalues[modes - 1] * coarse_solution.eigenvalues[modes]).sqrt();
+        let count = fine.stiffness.negative_pivots_shifted(shift, &fine.mass);
+        marks.push(Instant::now());
+        let solution = subspace::verify(&fine, modes, converged, Some(SturmCount { shift, count }))
+            .expect("verify");
+        marks.push(Instant::now());
+        std::hint::black_box(solution);
+        for (k, (_, v)) in rows.iter_mut().enumerate() {
+            v.push((marks[k + 1] - marks[k]).as_secs_f64() * 1e3);
+        }
+    }
+    println!("20 000 elements, 10 modes, step by step (median of 9 runs, ms)");
+    for (name, mut v) in rows {
+        v.sort_by(f64::total_cmp);
+        println!("{name:>32}  {:>8.2}", v[v.len() / 2]);
+    }
 }

@@ -3,7 +3,10 @@
 //! * [`element`]: tapered Timoshenko / Euler-Bernoulli element with exact static
 //!   flexibility, stiffness and consistent mass.
 //! * [`model`]: mesh and assembly of one stage (banded K and M, point masses, base springs).
+//! * [`compliance_fit`]: compliance integrals of nearly uniform elements from a few samples.
 //! * [`flexibility`]: K^-1 applied exactly by the statically-determinate recursion.
+//! * [`operator`]: the same recursion fused with the mass product (two sweeps, two cores on
+//!   fine meshes), the operator the eigen-solver applies.
 //! * [`band`]: banded products and the Sturm count.
 //! * [`subspace`]: subspace iteration on K^-1 M with the completeness check.
 //!
@@ -64,6 +67,12 @@ pub const COARSE_ELEMENTS: usize = 200;
 /// Fine meshes with more nodes than this interpolate their start vectors on all cores.
 const PARALLEL_NODES: usize = 4096;
 
+/// Width of the fine-mesh block (and the number of coarse modes that start it): the wanted
+/// modes and at least one guard, rounded up to whole four-lane chunks for the kernels.
+pub fn fine_block_width(modes: usize) -> usize {
+    (modes + 2).div_ceil(4) * 4
+}
+
 /// Builds the beam model of `stage` and solves for its lowest `modes` modes.
 pub fn solve_stage(
     case: &Case,
@@ -76,9 +85,7 @@ pub fn solve_stage(
         let solution = lowest_modes(&fine, modes)?;
         return Ok((fine, solution));
     }
-    // The fine block: the wanted modes and at least one guard, rounded up to whole
-    // four-lane chunks for the kernels.
-    let wanted = (modes + 2).div_ceil(4) * 4;
+    let wanted = fine_block_width(modes);
     let coarse = BeamModel::build(case, stage, Some(COARSE_ELEMENTS), wanted);
     let coarse_solution = lowest_modes(&coarse, wanted)?;
     // The coarse eigenvalues agree with the fine ones to far better than their gaps, so
