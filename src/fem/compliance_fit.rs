@@ -36,7 +36,7 @@ pub fn nodes_for(variation: f64) -> Option<usize> {
 pub struct Fit {
     /// Interpolation points x_j on [0, 1].
     pub nodes: Vec<f64>,
-    /// weights[t][k][j] = int_0^X_t x^k L_j(x) dx; targets t are the mass Gauss points
+    /// `weights[t][k][j]` = int_0^X_t x^k L_j(x) dx; targets t are the mass Gauss points
     /// (mapped to [0, 1]) and then the element end X = 1.
     pub weights: Vec<[[f64; MAX_NODES]; 4]>,
 }
