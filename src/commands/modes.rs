@@ -4,7 +4,7 @@ use std::path::Path;
 
 use crate::error::Error;
 use crate::modal::{analyse_case, ModalOptions, StageModes};
-use crate::report::csv::{mode_rows, section_rows, shape_rows, to_csv};
+use crate::report::csv::{mode_rows, section_rows, shape_csv, to_csv};
 use crate::report::staging::Staging;
 use crate::report::table;
 
@@ -63,10 +63,7 @@ pub const MODAL_FILES: [&str; 3] = ["modes.csv", "mode_shapes.csv", "sections.cs
 /// Writes modes.csv, mode_shapes.csv and sections.csv into the staging folder.
 pub fn stage_modal_files(staging: &mut Staging, stages: &[StageModes]) -> Result<(), Error> {
     staging.write("modes.csv", &to_csv("modes.csv", &mode_rows(stages))?)?;
-    staging.write(
-        "mode_shapes.csv",
-        &to_csv("mode_shapes.csv", &shape_rows(stages))?,
-    )?;
+    staging.write("mode_shapes.csv", &shape_csv(stages)?)?;
     staging.write(
         "sections.csv",
         &to_csv("sections.csv", &section_rows(stages))?,

@@ -97,13 +97,19 @@ pub fn solve_stage(
         coarse_solution.eigenvalues[modes],
     );
     let shift = (lower * upper).sqrt();
-    let (count, converged) = rayon::join(
-        || fine.stiffness.negative_pivots_shifted(shift, &fine.mass),
-        || {
-            let start = interpolate_modes(&coarse, &coarse_solution.vectors, &fine);
-            subspace::iterate(&fine, modes, start)
-        },
-    );
+    // The count runs in constant memory on a thread of its own; the iteration stays on the
+    // calling thread, whose allocator arena then keeps (and hands to the next solve) the
+    // big work blocks. In a rayon join both halves would run on pool threads, and the
+    // blocks of successive solves would be spread over several arenas.
+    let (converged, count) = std::thread::scope(|scope| {
+        let counter = scope.spawn(|| fine.stiffness.negative_pivots_shifted(shift, &fine.mass));
+        let start = interpolate_modes(&coarse, &coarse_solution.vectors, &fine);
+        let converged = subspace::iterate(&fine, modes, start);
+        let count = counter
+            .join()
+            .unwrap_or_else(|e| std::panic::resume_unwind(e));
+        (converged, count)
+    });
     let solution = subspace::verify(&fine, modes, converged?, Some(SturmCount { shift, count }))?;
     Ok((fine, solution))
 }

@@ -53,10 +53,11 @@ pub struct ModeRow {
     pub equivalent_mass_kg_m: f64,
 }
 
-/// One row of mode_shapes.csv (contract).
+/// One row of mode_shapes.csv (contract). Borrows the stage name: a fine mesh has hundreds
+/// of thousands of rows.
 #[derive(Debug, Clone, Serialize)]
-pub struct ShapeRow {
-    pub stage: String,
+pub struct ShapeRow<'a> {
+    pub stage: &'a str,
     pub mode: usize,
     pub z_m: f64,
     pub displacement: f64,
@@ -92,21 +93,32 @@ pub fn mode_rows(stages: &[StageModes]) -> Vec<ModeRow> {
         .collect()
 }
 
-pub fn shape_rows(stages: &[StageModes]) -> Vec<ShapeRow> {
-    let mut rows = Vec::new();
+/// mode_shapes.csv, serialised row by row (the rows are never held all at once).
+pub fn shape_csv(stages: &[StageModes]) -> Result<Vec<u8>, ReportError> {
+    const FILE: &str = "mode_shapes.csv";
+    let format = |e: ::csv::Error| ReportError::Format {
+        file: FILE.into(),
+        message: e.to_string(),
+    };
+    let mut w = ::csv::Writer::from_writer(Vec::new());
     for s in stages {
+        let stage = safe_text(&s.stage.name);
         for m in &s.modes {
-            for (z, w) in s.model.z_m.iter().zip(&m.displacement) {
-                rows.push(ShapeRow {
-                    stage: safe_text(&s.stage.name),
+            for (z, w_m) in s.model.z_m.iter().zip(&m.displacement) {
+                w.serialize(ShapeRow {
+                    stage: &stage,
                     mode: m.number,
                     z_m: *z,
-                    displacement: *w,
-                });
+                    displacement: *w_m,
+                })
+                .map_err(format)?;
             }
         }
     }
-    rows
+    w.into_inner().map_err(|e| ReportError::Format {
+        file: FILE.into(),
+        message: e.to_string(),
+    })
 }
 
 pub fn section_rows(stages: &[StageModes]) -> Vec<SectionCsvRow> {
