@@ -71,6 +71,33 @@ fn twenty_thousand_elements_equal_two_hundred_to_1e9() {
 }
 
 #[test]
+fn euler_bernoulli_on_a_rigid_base_ten_modes_at_twenty_thousand_elements() {
+    // The other branches of the fine-mesh path: no shear compliance, removed base dofs, ten
+    // modes (a 12-column block). Same 1e-9 criterion.
+    let mut case = tapered_case();
+    case.shell.beam = BeamTheory::EulerBernoulli;
+    case.base = None;
+    let stage = case.stages[0].clone();
+    let run = |elements| {
+        analyse_stage(
+            &case,
+            &stage,
+            ModalOptions {
+                modes: 10,
+                min_elements: Some(elements),
+            },
+        )
+        .unwrap()
+    };
+    let (coarse, fine) = (run(300), run(20_000));
+    for (a, b) in coarse.modes.iter().zip(&fine.modes) {
+        let rel = (a.frequency_hz - b.frequency_hz).abs() / b.frequency_hz;
+        assert!(rel < 1e-9, "mode {}: {rel:.2e}", a.number);
+    }
+    assert_eq!(fine.check.sturm_count, 10);
+}
+
+#[test]
 fn frequencies_converge_monotonically_from_above() {
     // A consistent-mass conforming element gives upper bounds that decrease with refinement
     // (Rayleigh-Ritz property; common practice).

@@ -372,3 +372,57 @@ pub fn iterate(model: &BeamModel, n: usize, mut x: Block) -> Result<Converged, S
         iterations,
     })
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn demo_model() -> BeamModel {
+        let case = crate::input::demo_case();
+        let stage = case.stages[1].clone();
+        BeamModel::build(&case, &stage, Some(60), 4)
+    }
+
+    #[test]
+    fn a_count_made_elsewhere_is_used_only_inside_the_gap() {
+        let model = demo_model();
+        let n = 4;
+        let reference = lowest_modes(&model, n).expect("solve");
+        let start = || start_vectors(&model, subspace_width(n));
+        // A shift below the last wanted eigenvalue: ignored, the count is made afresh at the
+        // geometric mean of the last wanted and the guard Ritz values.
+        let outside = SturmCount {
+            shift: 0.5 * reference.eigenvalues[n - 1],
+            count: n - 1,
+        };
+        let s = verify(
+            &model,
+            n,
+            iterate(&model, n, start()).unwrap(),
+            Some(outside),
+        )
+        .unwrap();
+        assert_eq!(s.sturm_count, n);
+        assert_eq!(s.shift, reference.shift);
+        // A shift inside the gap is used as given, and a wrong count there is reported.
+        let inside = SturmCount {
+            shift: reference.shift,
+            count: n + 1,
+        };
+        let err = verify(
+            &model,
+            n,
+            iterate(&model, n, start()).unwrap(),
+            Some(inside),
+        );
+        assert!(matches!(err, Err(SolverError::Incomplete { counted, .. }) if counted == n + 1));
+        let right = SturmCount {
+            shift: reference.shift,
+            count: model
+                .stiffness
+                .negative_pivots_shifted(reference.shift, &model.mass),
+        };
+        let s = verify(&model, n, iterate(&model, n, start()).unwrap(), Some(right)).unwrap();
+        assert_eq!(s.eigenvalues, reference.eigenvalues);
+    }
+}
