@@ -71,17 +71,18 @@ impl Shell {
         if z_m <= st[0].z_m {
             return (st[0].outer_diameter_m, st[0].wall_m);
         }
-        for w in st.windows(2) {
-            if z_m <= w[1].z_m {
-                let t = (z_m - w[0].z_m) / (w[1].z_m - w[0].z_m);
-                return (
-                    w[0].outer_diameter_m + t * (w[1].outer_diameter_m - w[0].outer_diameter_m),
-                    w[0].wall_m + t * (w[1].wall_m - w[0].wall_m),
-                );
-            }
+        // The first station at or above z (station tables can be long: binary search).
+        let i = st.partition_point(|s| s.z_m < z_m);
+        if i == st.len() {
+            let last = st[st.len() - 1];
+            return (last.outer_diameter_m, last.wall_m);
         }
-        let last = st[st.len() - 1];
-        (last.outer_diameter_m, last.wall_m)
+        let (a, b) = (st[i - 1], st[i]);
+        let t = (z_m - a.z_m) / (b.z_m - a.z_m);
+        (
+            a.outer_diameter_m + t * (b.outer_diameter_m - a.outer_diameter_m),
+            a.wall_m + t * (b.wall_m - a.wall_m),
+        )
     }
 }
 

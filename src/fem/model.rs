@@ -234,7 +234,11 @@ impl BeamModel {
                 lining_coefficients,
             }
         };
-        let element_data: Vec<ElementData> = z_m.windows(2).map(data_of).collect();
+        let element_data: Vec<ElementData> = if n_nodes > PARALLEL_ELEMENTS {
+            z_m.par_windows(2).map(data_of).collect()
+        } else {
+            z_m.windows(2).map(data_of).collect()
+        };
         let mut mass = SymBand::zeros(4 * n_nodes - 2);
         let mut stiffness = SymBand::zeros(4 * n_nodes - 2);
         // Element e owns band rows 4e..4e + 4 (its lower node and bubbles) and shares its
