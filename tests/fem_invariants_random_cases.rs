@@ -104,24 +104,19 @@ fn check_recursion_inverts_the_banded_stiffness(case: &Case, seed: u64) {
     };
     let model = BeamModel::build(case, &stage, Some(12), 3);
     let n = model.dofs();
-    let f: Vec<f64> = (0..n)
-        .map(|i| {
-            if model.is_free(i) {
-                (((i as u64 * 7919 + seed) % 97) as f64 - 48.0) * 1e3
-            } else {
-                0.0
-            }
-        })
-        .collect();
-    let g: Vec<f64> = (0..n)
-        .map(|i| {
-            if model.is_free(i) {
-                (((i as u64 * 104729 + seed) % 89) as f64 - 44.0) * 1e3
-            } else {
-                0.0
-            }
-        })
-        .collect();
+    // Two deterministic load patterns (zero on removed base dofs).
+    let pattern = |step: u64, modulus: u64| -> Vec<f64> {
+        (0..n)
+            .map(|i| {
+                if model.is_free(i) {
+                    (((i as u64 * step + seed) % modulus) as f64 - (modulus / 2) as f64) * 1e3
+                } else {
+                    0.0
+                }
+            })
+            .collect()
+    };
+    let (f, g) = (pattern(7919, 97), pattern(104729, 89));
     let mut u = vec![0.0; n];
     let mut v = vec![0.0; n];
     apply_inverse_stiffness(&model, &f, &mut u);

@@ -209,6 +209,8 @@ mod kernel {
         }
     }
 
+    /// Chooses the AVX2 + FMA sweeps when the CPU has them (each sweep function dispatches
+    /// itself, see `with_fma!`), then the sequential or the split form.
     pub(super) fn apply_and_mass(
         model: &BeamModel,
         loads: &Block,
@@ -218,23 +220,9 @@ mod kernel {
     ) {
         #[cfg(target_arch = "x86_64")]
         if super::super::block::kernels::has_fma() {
-            // SAFETY: the CPU supports AVX2 and FMA (checked at run time above).
-            unsafe { apply_and_mass_fma(model, loads, y, my, residual) };
-            return;
+            return body::<true>(model, loads, y, my, residual);
         }
         body::<false>(model, loads, y, my, residual)
-    }
-
-    #[cfg(target_arch = "x86_64")]
-    #[target_feature(enable = "avx2,fma")]
-    fn apply_and_mass_fma(
-        model: &BeamModel,
-        loads: &Block,
-        y: &mut Block,
-        my: &mut Block,
-        residual: Option<&mut ResidualSums<'_>>,
-    ) {
-        body::<true>(model, loads, y, my, residual)
     }
 
     /// The two halves of a split sweep: elements below `split` (L) and from `split` up (U).
@@ -253,7 +241,6 @@ mod kernel {
         beta: [f64; 2],
     }
 
-    #[inline(always)]
     fn body<const FMA: bool>(
         model: &BeamModel,
         loads: &Block,
@@ -427,7 +414,7 @@ mod kernel {
                 #[cfg(target_arch = "x86_64")]
                 if FMA {
                     // SAFETY: FMA = true is only chosen after the run-time check of AVX2 and
-                    // FMA in `apply_and_mass`.
+                    // FMA in `kernel::apply_and_mass`.
                     unsafe { $fast($($arg),*) };
                     return;
                 }
