@@ -14,6 +14,14 @@
 //! pairs (X, lambda) when L = M X: |Y - X / lambda|_M^2 = (Y - X/lambda)^T (M Y - M X/lambda),
 //! so the stopping test costs no pass of its own.
 //!
+//! Blocks of more than 2^18 values are swept in two halves at once, split at the middle
+//! element S: the lower half starts its down sweep as if nothing acted above S and gathers
+//! how its resultants and the displacement of S depend on the resultants (P_S, C_S) from
+//! above (statics and the recursion are linear), so after both down sweeps the lower half is
+//! corrected on the fly and both up sweeps run at once. The sweeps are bound by memory
+//! traffic, which two cores share well (two half-size sweeps take the time of one). The
+//! split does not depend on the thread count, so neither do the results.
+//!
 //! Units: loads in N and N m (per unit of the vectors' scale), displacements in m and rad.
 //! Every operation adds quantities of like magnitude, as in the separate kernels, so the
 //! result is exact to rounding at any mesh size.
