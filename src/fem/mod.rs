@@ -115,7 +115,9 @@ pub fn solve_stage(
 }
 
 /// Evaluates the coarse model's vectors at the fine model's nodes with the coarse elements'
-/// exact shapes (fine bubbles start at zero).
+/// exact shapes (fine bubbles start at zero). `coarse` and `fine` must be meshes of the same
+/// stage of the same case (as in [`solve_stage`]); they are only start vectors, so a
+/// mismatch would cost iterations, not accuracy.
 ///
 /// The shapes at s need the compliance integrals of the coarse element over [0, s]. Both
 /// meshes have nodes on every station, so each fine element inside a coarse one has the same
