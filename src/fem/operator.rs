@@ -92,7 +92,13 @@ pub fn apply_and_mass(
     if p == 0 {
         return;
     }
-    kernel::apply_and_mass(model, loads, y, my, residual);
+    // The AVX2 + FMA sweeps when the CPU has them (each sweep function dispatches itself,
+    // see `with_fma!`); `body` picks the sequential or the split form.
+    #[cfg(target_arch = "x86_64")]
+    if super::block::kernels::has_fma() {
+        return kernel::body::<true>(model, loads, y, my, residual);
+    }
+    kernel::body::<false>(model, loads, y, my, residual)
 }
 
 mod kernel {
@@ -217,22 +223,6 @@ mod kernel {
         }
     }
 
-    /// Chooses the AVX2 + FMA sweeps when the CPU has them (each sweep function dispatches
-    /// itself, see `with_fma!`), then the sequential or the split form.
-    pub(super) fn apply_and_mass(
-        model: &BeamModel,
-        loads: &Block,
-        y: &mut Block,
-        my: &mut Block,
-        residual: Option<&mut ResidualSums<'_>>,
-    ) {
-        #[cfg(target_arch = "x86_64")]
-        if super::super::block::kernels::has_fma() {
-            return body::<true>(model, loads, y, my, residual);
-        }
-        body::<false>(model, loads, y, my, residual)
-    }
-
     /// The two halves of a split sweep: elements below `split` (L) and from `split` up (U).
     /// Blocks smaller than this many values are swept in one piece.
     const SPLIT_VALUES: usize = 1 << 18;
@@ -249,22 +239,19 @@ mod kernel {
         beta: [f64; 2],
     }
 
-    fn body<const FMA: bool>(
+    pub(super) fn body<const FMA: bool>(
         model: &BeamModel,
         loads: &Block,
         y: &mut Block,
         my: &mut Block,
         residual: Option<&mut ResidualSums<'_>>,
     ) {
-        let p = loads.width;
-        let n_el = model.operator.len();
-        let split = n_el / 2;
+        let split = model.operator.len() / 2;
         if loads.data.len() < SPLIT_VALUES || split < 2 {
             sequential::<FMA>(model, loads, y, my, residual);
         } else {
             halves::<FMA>(model, loads, y, my, residual, split);
         }
-        debug_assert_eq!(p, y.width);
     }
 
     fn sequential<const FMA: bool>(
@@ -422,7 +409,7 @@ mod kernel {
                 #[cfg(target_arch = "x86_64")]
                 if FMA {
                     // SAFETY: FMA = true is only chosen after the run-time check of AVX2 and
-                    // FMA in `kernel::apply_and_mass`.
+                    // FMA in `apply_and_mass`.
                     unsafe { $fast($($arg),*) };
                     return;
                 }
