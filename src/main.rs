@@ -5,7 +5,7 @@
 use std::path::PathBuf;
 use std::process::ExitCode;
 
-use clap::{Parser, Subcommand};
+use clap::{CommandFactory, Parser, Subcommand};
 use stackwake::commands::{self, CommandReport};
 use stackwake::modal::ModalOptions;
 
@@ -86,6 +86,11 @@ enum Command {
         #[arg(long)]
         elements: Option<usize>,
     },
+    /// Print a shell completion script (e.g. `stackwake completions bash > stackwake.bash`).
+    Completions {
+        /// Shell to complete for.
+        shell: clap_complete::Shell,
+    },
 }
 
 /// Largest `--elements` accepted.
@@ -160,6 +165,14 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
                 min_elements: elements,
             };
             Ok(commands::scale::run(&case, &out, &options)?)
+        }
+        Command::Completions { shell } => {
+            let mut script = Vec::new();
+            clap_complete::generate(shell, &mut Cli::command(), "stackwake", &mut script);
+            Ok(CommandReport {
+                stdout: String::from_utf8_lossy(&script).into_owned(),
+                ..CommandReport::default()
+            })
         }
     }
 }

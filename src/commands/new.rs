@@ -82,6 +82,122 @@ mod tests {
         assert!(case.title.contains("Invented"));
     }
 
+    /// The field names of a serde struct, read from its derive (the list serde passes to
+    /// `deserialize_struct`), so the key list can never drift from what the reader accepts.
+    fn serde_fields<T: serde::de::DeserializeOwned>() -> &'static [&'static str] {
+        use serde::de::{Error as _, Visitor};
+        struct Grab<'a>(&'a mut &'static [&'static str]);
+        impl<'de> serde::Deserializer<'de> for Grab<'_> {
+            type Error = serde::de::value::Error;
+            fn deserialize_any<V: Visitor<'de>>(self, _: V) -> Result<V::Value, Self::Error> {
+                Err(Self::Error::custom("not a struct"))
+            }
+            fn deserialize_struct<V: Visitor<'de>>(
+                self,
+                _: &'static str,
+                fields: &'static [&'static str],
+                _: V,
+            ) -> Result<V::Value, Self::Error> {
+                *self.0 = fields;
+                Err(Self::Error::custom("fields read"))
+            }
+            serde::forward_to_deserialize_any! {
+                bool i8 i16 i32 i64 i128 u8 u16 u32 u64 u128 f32 f64 char str string bytes
+                byte_buf option unit unit_struct newtype_struct seq tuple tuple_struct map
+                enum identifier ignored_any
+            }
+        }
+        let mut fields: &'static [&'static str] = &[];
+        let _ = T::deserialize(Grab(&mut fields));
+        assert!(!fields.is_empty(), "{} has no fields", std::any::type_name::<T>());
+        fields
+    }
+
+    /// The template's lines with any leading comment marks taken off, each with the section
+    /// header above it (`""` before the first header): a commented-out key counts.
+    fn template_keys() -> Vec<(String, String)> {
+        let mut section = String::new();
+        let mut out = Vec::new();
+        for line in STARTER_TOML.lines() {
+            let l = line.trim_start_matches(|c: char| c == '#' || c.is_whitespace());
+            let head = l.split('#').next().unwrap_or("").trim();
+            let name = head.trim_start_matches('[').trim_end_matches(']');
+            if head.starts_with('[')
+                && head.ends_with(']')
+                && !name.is_empty()
+                && name.chars().all(|c| c.is_ascii_lowercase() || c == '_' || c == '.')
+            {
+                section = name.to_string();
+                out.push((String::new(), section.clone()));
+                continue;
+            }
+            // `key = ...`, also inside an inline table row `{ z_m = 0.0, ... }`.
+            for part in l.split(['{', ',']) {
+                if let Some((key, _)) = part.split_once('=') {
+                    let key = key.trim();
+                    if !key.is_empty()
+                        && key
+                            .chars()
+                            .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '_')
+                    {
+                        out.push((section.clone(), key.to_string()));
+                    }
+                }
+            }
+        }
+        out
+    }
+
+    #[test]
+    fn template_shows_every_key_the_reader_accepts() {
+        use crate::input::raw::*;
+        let keys = template_keys();
+        let has = |section: &str, key: &str| {
+            keys.iter().any(|(s, k)| s == section && k == key)
+        };
+        // Sections: each top-level key is a header, an array-of-tables header or a key.
+        let sub_sections = ["shell.stations", "vortex.group", "remedy.tmd", "remedy.strakes"];
+        for key in serde_fields::<RawCase>() {
+            let prefix = format!("{key}.");
+            assert!(
+                keys.iter()
+                    .any(|(s, k)| s.is_empty() && (k == key || k.starts_with(&prefix))),
+                "data/starter.toml does not show the section or key `{key}`"
+            );
+        }
+        let nested: &[(&str, &[&str])] = &[
+            ("shell", serde_fields::<RawShell>()),
+            ("shell", serde_fields::<RawStation>()),
+            ("lining", serde_fields::<RawLining>()),
+            ("point_mass", serde_fields::<RawPointMass>()),
+            ("base", serde_fields::<RawBase>()),
+            ("stage", serde_fields::<RawStage>()),
+            ("wind", serde_fields::<RawWind>()),
+            ("vortex", serde_fields::<RawVortex>()),
+            ("vortex.group", serde_fields::<RawGroup>()),
+            ("criteria", serde_fields::<RawCriteria>()),
+            ("model", serde_fields::<RawModel>()),
+            ("remedy", serde_fields::<RawRemedy>()),
+            ("remedy.tmd", serde_fields::<RawTmd>()),
+            ("remedy.strakes", serde_fields::<RawStrakes>()),
+        ];
+        for (section, fields) in nested {
+            for key in *fields {
+                let sub = format!("{section}.{key}");
+                assert!(
+                    has(section, key) || sub_sections.contains(&sub.as_str()) && has("", &sub),
+                    "data/starter.toml does not show `{key}` under [{section}]"
+                );
+            }
+        }
+        // Every section of the case file has its entry above (a new section must be added
+        // there, with its keys, when it is added to RawCase).
+        for key in serde_fields::<RawCase>() {
+            let covered = nested.iter().any(|(s, _)| s == key) || *key == "title";
+            assert!(covered, "section `{key}` has no key list in this test");
+        }
+    }
+
     #[test]
     fn refuses_to_overwrite_without_force() {
         let dir = tempfile::tempdir().unwrap();

@@ -18,6 +18,7 @@ use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::scale_plot::amplitude_vs_speed_svg;
 use crate::report::staging::Staging;
 use crate::report::table;
+use crate::similitude::factors::factor_text;
 use crate::similitude::measured::{to_prototype, PrototypeValues};
 use crate::similitude::{self, ScalePlan};
 
@@ -116,7 +117,7 @@ pub fn plan_text(plan: &ScalePlan) -> String {
     let mut out = format!(
         "{}\naeroelastic model at k_l = {} ({})\n\n",
         plan.prototype_title,
-        k.length,
+        factor_text(k.length),
         plan.design.length_scale_source.label()
     );
     let rows: Vec<Vec<String>> = plan
@@ -125,7 +126,7 @@ pub fn plan_text(plan: &ScalePlan) -> String {
         .map(|r| {
             vec![
                 r.quantity.to_string(),
-                format!("{:.6}", r.prototype_over_model),
+                factor_text(r.prototype_over_model),
                 r.condition.to_string(),
             ]
         })
@@ -282,7 +283,7 @@ pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<Comma
         if !points.is_empty() {
             let title = format!(
                 "Prototype response from the model tests (k_l = {})",
-                plan.design.factors.length
+                factor_text(plan.design.factors.length)
             );
             staging.write(
                 "prototype_amplitude_vs_speed.svg",

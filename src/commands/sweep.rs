@@ -17,14 +17,23 @@ use crate::sweep::{self, Class, Variant, VariantOutcome, Vary};
 
 use super::CommandReport;
 
-/// Checks that every key exists in the case file and holds a number.
+/// Checks that every key holds a number in the case file, or is a key the case file
+/// accepts but leaves to its default (an optional key such as `vortex.strouhal`: the sweep
+/// writes it into each variant).
 pub fn check_keys(table: &toml::Table, vary: &[Vary]) -> Result<(), Error> {
     for v in vary {
-        keypath::get_number(table, &v.key).map_err(|e| Error::Usage {
+        let usage = |rule: String| Error::Usage {
             option: "--vary".into(),
             value: v.key.clone(),
-            rule: e.to_string(),
-        })?;
+            rule,
+        };
+        match keypath::get_number(table, &v.key) {
+            Ok(_) => {}
+            Err(keypath::KeyPathError::Missing { .. }) => {
+                check_absent_key(table, v).map_err(usage)?;
+            }
+            Err(e) => return Err(usage(e.to_string())),
+        }
     }
     let mut keys: Vec<&str> = vary.iter().map(|v| v.key.as_str()).collect();
     keys.sort_unstable();
@@ -42,6 +51,31 @@ pub fn check_keys(table: &toml::Table, vary: &[Vary]) -> Result<(), Error> {
     Ok(())
 }
 
+/// An absent key may be swept when the case-file reader accepts a number there: it is
+/// written into a copy of the file and the reader's verdict on that key (unknown key,
+/// wrong type) is the answer. Problems elsewhere in the file are left to the variants.
+fn check_absent_key(table: &toml::Table, v: &Vary) -> Result<(), String> {
+    let mut t = table.clone();
+    if let Err(e) = keypath::insert_number(&mut t, &v.key, v.from) {
+        return Err(e.to_string());
+    }
+    let Err(issues) = input::decode::decode_case(t) else {
+        return Ok(());
+    };
+    let on_key = issues.iter().find(|i| {
+        v.key == i.path
+            || v.key
+                .strip_prefix(i.path.as_str())
+                .is_some_and(|rest| rest.starts_with(['.', '[']))
+    });
+    match on_key {
+        None => Ok(()),
+        Some(i) => Err(format!(
+            "not in the case file, and not a number key the case file accepts ({i});              an optional key left out of the file can be swept by its full path, e.g.              vortex.strouhal=0.16:0.20:5"
+        )),
+    }
+}
+
 /// Analyses one variant: edits the parsed case table, validates, analyses.
 pub fn run_variant(
     table: &toml::Table,
@@ -53,7 +87,8 @@ pub fn run_variant(
     let values = sweep::grid_point(vary, index);
     let mut t = table.clone();
     for (v, &x) in vary.iter().zip(&values) {
-        if let Err(e) = keypath::set_number(&mut t, &v.key, x) {
+        // `check_keys` accepted the key: its own number, or an optional key left out.
+        if let Err(e) = keypath::insert_number(&mut t, &v.key, x) {
             // Keys are checked before the sweep; this is only reachable if the table changed.
             return Variant {
                 index,
@@ -163,10 +198,12 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
     let seconds = start.elapsed().as_secs_f64();
 
     staging.write("sweep.csv", &sweep_csv(&vary, &variants)?)?;
+    let mut map_note = None;
     if vary.len() >= 2 {
         let map = sweep::lock_in_map(&vary, 0, 1, &variants);
         let title = format!("stackwake sweep of {label}");
         staging.write("sweep_map.svg", lock_in_map_svg(&map, &title).as_bytes())?;
+        map_note = map.hidden_keys_note();
     }
     let files = staging.commit()?;
 
@@ -188,6 +225,12 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
             "  worst verdict {:<8} {:>8} variants\n",
             class.label(),
             counts[class as usize]
+        ));
+    }
+    if let Some(note) = map_note {
+        stdout.push_str(&format!(
+            "sweep_map.svg shows {} x {}. {note}\n",
+            vary[0].key, vary[1].key
         ));
     }
     stdout.push_str(

@@ -117,6 +117,71 @@ pub fn set_number(table: &mut Table, path: &str, value: f64) -> Result<(), KeyPa
     Ok(())
 }
 
+/// Writes `value` at `path`, creating the key, and any tables on the way to it, when absent
+/// (for sweeping an optional key the file leaves to its default, e.g. `vortex.strouhal`).
+/// An array entry is never created: `lining[3]` must exist. Whether the created key is one
+/// the case file accepts is for the reader to judge.
+pub fn insert_number(table: &mut Table, path: &str, value: f64) -> Result<(), KeyPathError> {
+    match set_number(table, path, value) {
+        Err(KeyPathError::Missing { .. }) => {}
+        other => return other,
+    }
+    let steps = parse(path)?;
+    let missing = |reason: String| KeyPathError::Missing {
+        path: path.to_string(),
+        reason,
+    };
+    let Some((Step::Key(last), parents)) = steps.split_last() else {
+        return Err(missing("an array entry cannot be created by a sweep".into()));
+    };
+    // Work on the table as a value (so that array entries and tables walk alike) and put
+    // it back whatever happens.
+    let mut root = Value::Table(std::mem::take(table));
+    let result = (|| {
+        let mut here = &mut root;
+        let mut name = String::new();
+        for step in parents {
+            here = match step {
+                Step::Key(k) => {
+                    let Value::Table(t) = here else {
+                        return Err(missing(format!("`{name}` is not a table")));
+                    };
+                    name = if name.is_empty() {
+                        k.clone()
+                    } else {
+                        format!("{name}.{k}")
+                    };
+                    t.entry(k.clone())
+                        .or_insert_with(|| Value::Table(Table::new()))
+                }
+                Step::Index(i) => {
+                    let Value::Array(a) = here else {
+                        return Err(missing(format!("`{name}` is not an array")));
+                    };
+                    let len = a.len();
+                    name = format!("{name}[{i}]");
+                    a.get_mut(*i).ok_or_else(|| {
+                        missing(format!(
+                            "`{}` has {len} entries, 0 to {}; a sweep cannot add one",
+                            name.rsplit_once('[').map_or(name.as_str(), |p| p.0),
+                            len.saturating_sub(1)
+                        ))
+                    })?
+                }
+            };
+        }
+        let Value::Table(t) = here else {
+            return Err(missing(format!("`{name}` is not a table")));
+        };
+        t.insert(last.clone(), Value::Float(value));
+        Ok(())
+    })();
+    if let Value::Table(t) = root {
+        *table = t;
+    }
+    result
+}
+
 fn walk<'a>(
     table: &'a mut Table,
     path: &str,
@@ -192,6 +257,24 @@ method = "en1991-e1"
         );
         set_number(&mut t, "vortex.modes", 2.0).unwrap();
         assert_eq!(t["vortex"]["modes"], Value::Integer(2));
+    }
+
+    #[test]
+    fn absent_keys_and_tables_can_be_inserted_but_not_array_entries() {
+        let mut t: Table = toml::from_str(TEXT).unwrap();
+        insert_number(&mut t, "vortex.strouhal", 0.2).unwrap();
+        assert_eq!(get_number(&t, "vortex.strouhal").unwrap(), 0.2);
+        insert_number(&mut t, "criteria.stress_mpa", 3.0).unwrap();
+        assert_eq!(get_number(&t, "criteria.stress_mpa").unwrap(), 3.0);
+        insert_number(&mut t, "shell.stations[1].extra_m", 1.0).unwrap();
+        assert_eq!(get_number(&t, "shell.stations[1].extra_m").unwrap(), 1.0);
+        // An existing key is set, keeping its integer type.
+        insert_number(&mut t, "vortex.modes", 4.0).unwrap();
+        assert_eq!(t["vortex"]["modes"], Value::Integer(4));
+        let e = insert_number(&mut t, "shell.stations[7].wall_m", 0.3).unwrap_err();
+        assert!(e.to_string().contains("has 2 entries"), "{e}");
+        let e = insert_number(&mut t, "vortex.method.x", 1.0).unwrap_err();
+        assert!(e.to_string().contains("`vortex.method` is not a table"), "{e}");
     }
 
     #[test]

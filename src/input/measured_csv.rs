@@ -10,6 +10,7 @@
 use std::path::Path;
 
 use super::issue::{suggestion, ValidationIssue};
+use super::stations_csv::line_of;
 use super::{read_limited, InputError, ReadFailure};
 use crate::similitude::measured::ModelMeasurement;
 
@@ -92,11 +93,20 @@ pub fn parse_measured_csv(
         let record = match record {
             Ok(r) => r,
             Err(e) => {
-                issues.push(ValidationIssue::key(label, format!("unreadable row: {e}")));
+                let place = match e.position() {
+                    Some(p) => format!("{label} line {}", line_of(text, p.byte())),
+                    None => label.to_string(),
+                };
+                issues.push(ValidationIssue::key(place, format!("unreadable row: {e}")));
                 continue;
             }
         };
-        let line = record.position().map(|p| p.line()).unwrap_or(0);
+        // The editor's line (header = line 1, comment and blank lines counted), as the
+        // stations reader reports it.
+        let line = record
+            .position()
+            .map(|p| line_of(text, p.byte()))
+            .unwrap_or(0);
         if record.iter().all(str::is_empty) {
             continue;
         }
@@ -200,6 +210,25 @@ mod tests {
                     .starts_with("m.csv line 3, column model_speed_m_s = \"2 m/s\": not a number")),
             "{text:?}"
         );
+    }
+
+    #[test]
+    fn line_numbers_are_the_editors_like_the_stations_reader() {
+        // Header on line 2 after a comment, a blank line and a comment before the data: the
+        // bad cell is on line 6 of the file as an editor numbers it.
+        let text = "# lab run 3\nmodel_speed_m_s,tip_amplitude_m\n1.0,0.001\n\n# gust\n2.0,x\n";
+        let errs = parse_measured_csv(text, "m.csv").unwrap_err();
+        let text: Vec<String> = errs.iter().map(ToString::to_string).collect();
+        assert_eq!(
+            text,
+            vec!["m.csv line 6, column tip_amplitude_m = \"x\": not a number (plain number, no unit: the unit is in the column name)".to_string()]
+        );
+        let stations = crate::input::stations_csv::parse_stations_csv(
+            "# s\nz_m,outer_diameter_m,wall_m\n0,1,0.1\n\n# gust\n2,x,0.1\n",
+            "s.csv",
+        )
+        .unwrap_err();
+        assert!(stations[0].to_string().starts_with("s.csv line 6,"), "{stations:?}");
     }
 
     #[test]

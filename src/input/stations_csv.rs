@@ -4,9 +4,13 @@
 //! Spreadsheet exports are forgiving about what they write, so this reader is forgiving about
 //! layout and strict about numbers: a UTF-8 byte-order mark, CRLF line endings, blank rows,
 //! `#` comment lines and spaces around cells are accepted; a semicolon or tab separated file
-//! (usual where the comma is the decimal separator) is recognised from its header. A comma
-//! decimal (`0,45`), a stray unit (`16 m`), an empty cell, an unknown, duplicated or missing
-//! column is reported with its line and column, every problem at once.
+//! (usual where the comma is the decimal separator) is recognised from its header. In a
+//! semicolon file the comma cannot separate cells, so a decimal comma (`0,45`) is read as
+//! `0.45`; in a comma file it is reported. A header with its unit in brackets (`z (m)`,
+//! `outer diameter [m]`, `wall_m (m)`) is read as our column when the unit is metres, and
+//! refused in one line naming the unit otherwise. A stray unit in a cell (`16 m`), an empty
+//! cell, an unknown, duplicated or missing column is reported with its line and column, every
+//! problem at once.
 
 use csv::{ReaderBuilder, Trim};
 
@@ -83,8 +87,24 @@ pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<Va
 
     // Column index of each station field.
     let mut index: [Option<usize>; 3] = [None; 3];
-    for (i, name) in headers.iter().enumerate() {
-        match STATION_COLUMNS.iter().position(|c| c == name) {
+    // A header with a unit we cannot use is refused in one line; the "missing column" lines
+    // it would cause say nothing more, so they are left out.
+    let mut refused_unit = false;
+    for (i, raw_name) in headers.iter().enumerate() {
+        let name = match header_with_unit(raw_name) {
+            HeaderName::Plain => raw_name.as_str(),
+            HeaderName::Column(k) => STATION_COLUMNS[k],
+            HeaderName::Refused(rule) => {
+                refused_unit = true;
+                issues.push(ValidationIssue::new(
+                    header_place.clone(),
+                    format!("\"{raw_name}\""),
+                    rule,
+                ));
+                continue;
+            }
+        };
+        match STATION_COLUMNS.iter().position(|c| *c == name) {
             Some(k) if index[k].is_some() => issues.push(ValidationIssue::new(
                 header_place.clone(),
                 format!("\"{name}\""),
@@ -102,7 +122,7 @@ pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<Va
         }
     }
     for (k, column) in STATION_COLUMNS.iter().enumerate() {
-        if index[k].is_none() {
+        if index[k].is_none() && !refused_unit {
             issues.push(ValidationIssue::key(
                 label,
                 format!("missing column {column} (columns: z_m, outer_diameter_m, wall_m)"),
@@ -153,7 +173,7 @@ pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<Va
         let mut ok = true;
         for (k, column) in STATION_COLUMNS.iter().enumerate() {
             let cell = index[k].and_then(|i| record.get(i)).unwrap_or("");
-            match parse_cell(cell) {
+            match parse_cell(cell, delimiter) {
                 Ok(v) => values[k] = v,
                 Err(rule) => {
                     ok = false;
@@ -189,7 +209,7 @@ pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<Va
 /// 1-based editor line of a record from its csv byte position. csv reports the position
 /// where it started reading the record, which can be the end of the previous line (before
 /// its line break and any empty or comment lines), so those are skipped first.
-fn line_of(text: &str, byte: u64) -> u64 {
+pub(crate) fn line_of(text: &str, byte: u64) -> u64 {
     let bytes = text.as_bytes();
     let mut start = usize::try_from(byte).unwrap_or(usize::MAX).min(bytes.len());
     loop {
@@ -207,16 +227,80 @@ fn line_of(text: &str, byte: u64) -> u64 {
     bytes[..start].iter().filter(|&&b| b == b'\n').count() as u64 + 1
 }
 
-/// One number in metres, or why it is not one.
-fn parse_cell(cell: &str) -> Result<f64, String> {
+/// What a header cell names once a bracketed unit is taken off.
+#[derive(Debug, Clone, PartialEq, Eq)]
+enum HeaderName {
+    /// No bracketed unit: matched (or reported) by its own name.
+    Plain,
+    /// `name (m)` naming station column `k`.
+    Column(usize),
+    /// A bracketed unit that cannot be read, and why.
+    Refused(String),
+}
+
+/// Reads `z (m)`, `outer diameter [m]`, `wall_m (m)` as our columns. Only metres are
+/// accepted: converting another unit here would hide a unit slip from the user, and the
+/// case file's rule is that the unit is in the name.
+fn header_with_unit(header: &str) -> HeaderName {
+    let Some(open) = header.find(['(', '[']) else {
+        return HeaderName::Plain;
+    };
+    let close = if header.as_bytes()[open] == b'(' {
+        ')'
+    } else {
+        ']'
+    };
+    let rest = &header[open + 1..];
+    let Some(end) = rest.find(close) else {
+        return HeaderName::Plain;
+    };
+    if !rest[end + 1..].trim().is_empty() {
+        return HeaderName::Plain;
+    }
+    let unit = rest[..end].trim().to_ascii_lowercase();
+    let base = header[..open]
+        .trim()
+        .to_ascii_lowercase()
+        .split_whitespace()
+        .collect::<Vec<_>>()
+        .join("_");
+    let base = base.strip_suffix("_m").unwrap_or(&base).to_string();
+    let Some(k) = ["z", "outer_diameter", "wall"]
+        .iter()
+        .position(|b| *b == base)
+    else {
+        return HeaderName::Refused(
+            "unknown column; name the columns z_m, outer_diameter_m, wall_m (or z (m), outer_diameter (m), wall (m))"
+                .to_string(),
+        );
+    };
+    if matches!(unit.as_str(), "m" | "metre" | "metres" | "meter" | "meters") {
+        HeaderName::Column(k)
+    } else {
+        HeaderName::Refused(format!(
+            "unit \"{unit}\" is not read; give {} in metres (header {} or {} (m))",
+            STATION_COLUMNS[k], STATION_COLUMNS[k], ["z", "outer_diameter", "wall"][k]
+        ))
+    }
+}
+
+/// One number in metres, or why it is not one. In a `;` file a single decimal comma
+/// (`0,45`, no point) is read as a decimal point: the comma cannot be a separator there.
+fn parse_cell(cell: &str, delimiter: u8) -> Result<f64, String> {
     if cell.is_empty() {
         return Err("empty cell; every row needs all three values".into());
     }
     if let Ok(v) = cell.parse::<f64>() {
         return Ok(v);
     }
-    if cell.contains(',') && cell.replacen(',', ".", 1).parse::<f64>().is_ok() {
-        return Err("not a number; use a point as the decimal separator".into());
+    let decimal_comma = cell.matches(',').count() == 1 && !cell.contains('.');
+    if decimal_comma {
+        if let Ok(v) = cell.replacen(',', ".", 1).parse::<f64>() {
+            if delimiter == b';' {
+                return Ok(v);
+            }
+            return Err("not a number; use a point as the decimal separator".into());
+        }
     }
     let numeric_part = cell.trim_end_matches(|c: char| c.is_alphabetic() || c.is_whitespace());
     if numeric_part.len() < cell.len() && numeric_part.parse::<f64>().is_ok() {
@@ -258,12 +342,49 @@ mod tests {
     }
 
     #[test]
-    fn semicolon_file_with_comma_decimals_is_explained() {
-        let e = errs("z_m;outer_diameter_m;wall_m\n0;12;0,45\n");
+    fn semicolon_file_with_comma_decimals_is_read() {
+        assert_eq!(
+            ok("z_m;outer_diameter_m;wall_m\n0;12,5;0,45\n80;8;0.3\n"),
+            vec![(2, [0.0, 12.5, 0.45]), (3, [80.0, 8.0, 0.3])]
+        );
+        // Thousands marks or two commas stay refused: the value would be a guess.
+        let e = errs("z_m;outer_diameter_m;wall_m\n1.000,5;12;0,45\n");
+        assert_eq!(e.len(), 1, "{e:?}");
+        assert!(e[0].contains(r#"column z_m = "1.000,5": not a number"#), "{e:?}");
+    }
+
+    #[test]
+    fn tab_file_with_comma_decimals_is_explained() {
+        // In a tab file a comma may be a thousands mark (1,000) as well as a decimal one.
+        let e = errs("z_m\touter_diameter_m\twall_m\n0\t12\t0,45\n");
         assert_eq!(
             e,
             vec![r#"s.csv line 2, column wall_m = "0,45": not a number; use a point as the decimal separator"#.to_string()]
         );
+    }
+
+    #[test]
+    fn headers_with_metres_in_brackets_are_read() {
+        assert_eq!(
+            ok("z (m),Outer diameter [m],wall_m (m)\n0,12,0.5\n"),
+            vec![(2, [0.0, 12.0, 0.5])]
+        );
+        assert_eq!(
+            ok("wall (metres);z (m);outer_diameter (m)\n0,5;0;12\n"),
+            vec![(2, [0.0, 12.0, 0.5])]
+        );
+    }
+
+    #[test]
+    fn headers_with_other_units_are_refused_in_one_line_each() {
+        let e = errs("z (m),outer_diameter (m),wall (mm)\n0,12,500\n");
+        assert_eq!(
+            e,
+            vec![r#"s.csv header = "wall (mm)": unit "mm" is not read; give wall_m in metres (header wall_m or wall (m))"#.to_string()]
+        );
+        let e = errs("height (m),outer_diameter_m,wall_m\n0,12,0.5\n");
+        assert_eq!(e.len(), 1, "{e:?}");
+        assert!(e[0].starts_with(r#"s.csv header = "height (m)": unknown column"#), "{e:?}");
     }
 
     #[test]

@@ -176,11 +176,9 @@ fn inputs(out: &mut String, input: &ReportInput) {
     .write(out);
     Table {
         head: &["station", "z_m", "outer_diameter_m", "wall_m"],
-        rows: c
-            .shell
-            .stations
-            .iter()
-            .enumerate()
+        rows: super::station_table::shown_stations(&c.shell.stations)
+            .into_iter()
+            .map(|i| (i, &c.shell.stations[i]))
             .map(|(i, s)| {
                 vec![
                     n((i + 1).to_string()),
@@ -192,6 +190,9 @@ fn inputs(out: &mut String, input: &ReportInput) {
             .collect(),
     }
     .write(out);
+    if let Some(note) = super::station_table::condensed_note(&c.shell.stations) {
+        let _ = writeln!(out, "<p>{}</p>", html_escape(&note));
+    }
     out.push_str("<h3>2.2 Lining, platforms and foundation</h3>\n");
     if c.linings.is_empty() {
         out.push_str("<p>No lining.</p>\n");

@@ -8,6 +8,7 @@ pub mod json;
 pub mod scale_html;
 pub mod scale_plot;
 pub mod staging;
+pub mod station_table;
 pub mod svg;
 pub mod sweep;
 pub mod table;

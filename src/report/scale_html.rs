@@ -3,6 +3,7 @@
 //! plan's internals.
 
 use super::html::html_escape as escape;
+use crate::similitude::factors::factor_text;
 use crate::similitude::ScalePlan;
 
 fn table(head: &[&str], rows: &[Vec<String>]) -> String {
@@ -34,13 +35,15 @@ fn yes_no(v: Option<bool>) -> String {
 pub fn render_html(plan: &ScalePlan) -> String {
     let d = &plan.design;
     let k = &d.factors;
-    let mut s = String::from("<section class=\"scale-plan\">\n<h2>Aeroelastic model plan</h2>\n");
+    // No heading of its own: the note numbers and titles the section it is placed in
+    // (a heading here printed "Aeroelastic model plan" twice).
+    let mut s = String::from("<section class=\"scale-plan\">\n");
     s.push_str(&format!(
         "<p>Prototype: {}. Length scale k_l = {} ({}). Model material: E = {:.3} GPa, \
          density {:.0} kg/m3, Poisson's ratio {:.2}. Scales are prototype / model; the model is \
          tested in the same air.</p>\n",
         escape(&plan.prototype_title),
-        k.length,
+        factor_text(k.length),
         escape(d.length_scale_source.label()),
         d.spec.elastic_modulus_pa / 1e9,
         d.spec.density_kg_m3,
@@ -53,7 +56,7 @@ pub fn render_html(plan: &ScalePlan) -> String {
         .map(|r| {
             vec![
                 r.quantity.to_string(),
-                format!("{:.6}", r.prototype_over_model),
+                factor_text(r.prototype_over_model),
                 r.condition.to_string(),
             ]
         })

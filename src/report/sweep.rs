@@ -1,5 +1,11 @@
 //! Sweep outputs: `sweep.csv` (one row per variant x stage x mode; an invalid variant is one
 //! row whose verdict says why) and `sweep_map.svg`, the lock-in map over two swept keys.
+//! With more than two swept keys the map says, under its title, that each cell is the worst
+//! case over the keys it does not show.
+//!
+//! `required_log_decrement` in sweep.csv: empty when the mode needs no more damping (within
+//! the criteria, screened out or not judged), `inf` when no structural log decrement up to
+//! 4 meets the criteria.
 //!
 //! The map is hand-written SVG that reads in greyscale: each class has its own fill AND
 //! pattern (hatching for `exceeds`, cross-hatching for `invalid`), and cells large enough
@@ -32,7 +38,10 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
         "frequency_hz",
         "critical_speed_m_s",
         "speed_ratio",
+        "scruton",
         "tip_amplitude_m",
+        "max_stress_pa",
+        "required_log_decrement",
         "verdict",
     ] {
         header.push(h.to_string());
@@ -50,7 +59,10 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
                         num(r.frequency_hz),
                         num(r.critical_speed_m_s),
                         num(r.speed_ratio),
+                        num(r.scruton),
                         r.tip_amplitude_m.map(num).unwrap_or_default(),
+                        r.max_stress_pa.map(num).unwrap_or_default(),
+                        r.required_log_decrement.map(num).unwrap_or_default(),
                         r.verdict.to_string(),
                     ]);
                     w.write_record(&rec).map_err(fmt_err)?;
@@ -63,15 +75,9 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
                     "error"
                 };
                 let mut rec = keys.clone();
-                rec.extend([
-                    String::new(),
-                    String::new(),
-                    String::new(),
-                    String::new(),
-                    String::new(),
-                    String::new(),
-                    format!("{word}: {}", msg.replace('\n', "; ")),
-                ]);
+                // Empty cells for every result column but the verdict.
+                rec.extend(std::iter::repeat_n(String::new(), 9));
+                rec.push(format!("{word}: {}", msg.replace('\n', "; ")));
                 w.write_record(&rec).map_err(fmt_err)?;
             }
         }
@@ -102,7 +108,9 @@ fn tick(v: f64) -> String {
 pub fn lock_in_map_svg(map: &LockInMap, title: &str) -> String {
     let (nx, ny) = (map.x.steps, map.y.steps);
     let cell = (720.0 / nx.max(ny) as f64).clamp(4.0, 60.0);
-    let (left, top) = (110.0, 60.0);
+    // Room under the title for the hidden-keys line when there is one.
+    let top = if map.hidden.is_empty() { 60.0 } else { 72.0 };
+    let left = 110.0;
     let (w, h) = (cell * nx as f64, cell * ny as f64);
     let width = left + w + 190.0;
     let height = top + h + 80.0;
@@ -127,6 +135,13 @@ pub fn lock_in_map_svg(map: &LockInMap, title: &str) -> String {
         s,
         r#"<text x="{left}" y="40">Lock-in map: worst verdict over stages and modes; label = smallest speed ratio v_crit / v_m</text>"#
     );
+    if let Some(note) = map.hidden_keys_note() {
+        let _ = writeln!(
+            s,
+            r#"<text x="{left}" y="58" font-weight="bold">{}</text>"#,
+            escape(&note)
+        );
+    }
     let xs = map.x.values();
     let ys = map.y.values();
     for c in &map.cells {

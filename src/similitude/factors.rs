@@ -183,9 +183,42 @@ pub struct FactorRow {
     pub condition: &'static str,
 }
 
+/// A scale factor as text for people: six significant digits, plain between 0.001 and
+/// 100 000 (`200`, `0.0707107`, `94.4`), otherwise in exponent form with at least one
+/// decimal (`8.0e6`, `1.23457e7`, `5.0e-5`), so a large factor is read at a glance instead
+/// of counted in zeros (`8000000.000000`).
+pub fn factor_text(v: f64) -> String {
+    if !v.is_finite() || v == 0.0 {
+        return format!("{v}");
+    }
+    let rounded = super::model_case::round_significant(v, 6);
+    let a = rounded.abs();
+    if (1e-3..1e5).contains(&a) {
+        return format!("{rounded}");
+    }
+    // `{:e}` of the rounded value is its shortest mantissa: 8e6, 1.23457e7.
+    let e = format!("{rounded:e}");
+    match e.split_once('e') {
+        Some((m, x)) if !m.contains('.') => format!("{m}.0e{x}"),
+        _ => e,
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn factor_text_is_short_and_exact_to_six_digits() {
+        assert_eq!(factor_text(8.0e6), "8.0e6");
+        assert_eq!(factor_text(12_345_678.0), "1.23457e7");
+        assert_eq!(factor_text(5.0e-5), "5.0e-5");
+        assert_eq!(factor_text(200.0), "200");
+        assert_eq!(factor_text(94.39999999999999), "94.4");
+        assert_eq!(factor_text(1.0 / 14.142135623730951), "0.0707107");
+        assert_eq!(factor_text(-2.5e9), "-2.5e9");
+        assert_eq!(factor_text(1.0), "1");
+    }
 
     #[test]
     fn same_material_gives_froude_free_geometric_scaling() {

@@ -11,14 +11,18 @@
 //! height, roughness length and z_min / k_l, same air, same Strouhal number and log
 //! decrement; a group spacing / k_l; amplitude criteria / k_l, stress criteria / k_E.
 //!
-//! Floats are written by the `toml` crate, which prints the shortest text that reads back
-//! to the same f64, so the file loses no precision.
+//! Every scaled number is rounded to [`SIGNIFICANT_DIGITS`] significant digits before it is
+//! written (`94.4`, not `94.39999999999999`): the prototype's own data rarely carry more
+//! than four digits and a model maker works to far coarser tolerances (0.01 mm on a 1 mm
+//! wall is 1 %), while six digits move a model frequency by at most ~1e-6 relative, far
+//! below the 0.1 % the FE check of model against prototype reports. The file is the one
+//! the FE check runs, so the check sees exactly what the user gets.
 
 use serde::Serialize;
 
 use crate::case::{BeamTheory, Case, LiningMass, ModelSpec, Profile};
 
-use super::factors::ScaleFactors;
+use super::factors::{factor_text, ScaleFactors};
 use super::SimilitudeError;
 
 /// One station of the model shell, model units (m).
@@ -164,6 +168,25 @@ struct FileCriteria {
     stress_mpa: Option<f64>,
 }
 
+/// Significant digits of the numbers in the model case file (see the module doc for why).
+pub const SIGNIFICANT_DIGITS: usize = 6;
+
+/// `v` rounded to `digits` significant decimal digits (the nearest f64 to the rounded
+/// decimal, so it prints short). Non-finite values and zero are returned unchanged.
+pub fn round_significant(v: f64, digits: usize) -> f64 {
+    if !v.is_finite() || v == 0.0 || digits == 0 {
+        return v;
+    }
+    // Formatting does the decimal rounding exactly (round-half-even on the exact binary
+    // value); parsing returns the nearest f64 to that decimal.
+    format!("{:.*e}", digits - 1, v).parse().unwrap_or(v)
+}
+
+/// Shorthand used for every scaled number written to the file.
+fn r(v: f64) -> f64 {
+    round_significant(v, SIGNIFICANT_DIGITS)
+}
+
 /// Text safe for a one-line TOML comment.
 fn one_line(s: &str) -> String {
     s.chars()
@@ -183,11 +206,11 @@ pub fn model_case(
         .stations
         .iter()
         .map(|s| {
-            let wall_m = s.wall_m / k.wall_thickness;
+            let wall_m = r(s.wall_m / k.wall_thickness);
             let below = spec.min_wall_m.is_some_and(|min| wall_m < min);
             ModelStation {
-                z_m: s.z_m / k.length,
-                outer_diameter_m: s.outer_diameter_m / k.length,
+                z_m: r(s.z_m / k.length),
+                outer_diameter_m: r(s.outer_diameter_m / k.length),
                 wall_m,
                 below_min_wall: below,
             }
@@ -210,8 +233,8 @@ pub fn model_case(
         .iter()
         .map(|l| {
             let mut f = FileLining {
-                from_z_m: l.from_z_m / k.length,
-                to_z_m: l.to_z_m / k.length,
+                from_z_m: r(l.from_z_m / k.length),
+                to_z_m: r(l.to_z_m / k.length),
                 mass_per_length_kg_m: None,
                 mass_per_area_kg_m2: None,
                 thickness_m: None,
@@ -221,11 +244,11 @@ pub fn model_case(
             match l.mass {
                 LiningMass::PerLength {
                     mass_per_length_kg_m,
-                } => f.mass_per_length_kg_m = Some(mass_per_length_kg_m / k.mass_per_length),
+                } => f.mass_per_length_kg_m = Some(r(mass_per_length_kg_m / k.mass_per_length)),
                 LiningMass::PerArea {
                     mass_per_area_kg_m2,
                 } => {
-                    let q = mass_per_area_kg_m2 / k.lining_mass_per_area;
+                    let q = r(mass_per_area_kg_m2 / k.lining_mass_per_area);
                     per_area.push(q);
                     f.mass_per_area_kg_m2 = Some(q);
                 }
@@ -234,9 +257,9 @@ pub fn model_case(
                     density_kg_m3,
                     gap_m,
                 } => {
-                    f.thickness_m = Some(thickness_m / k.length);
+                    f.thickness_m = Some(r(thickness_m / k.length));
                     f.density_kg_m3 = Some(density_kg_m3);
-                    f.gap_m = Some(gap_m / k.length);
+                    f.gap_m = Some(r(gap_m / k.length));
                 }
             }
             f
@@ -246,14 +269,14 @@ pub fn model_case(
     let point_masses_kg: Vec<(String, f64)> = prototype
         .point_masses
         .iter()
-        .map(|p| (p.label.clone(), p.mass_kg / k.point_mass))
+        .map(|p| (p.label.clone(), r(p.mass_kg / k.point_mass)))
         .collect();
     let point_mass = prototype
         .point_masses
         .iter()
         .zip(&point_masses_kg)
         .map(|(p, (label, kg))| FilePointMass {
-            z_m: p.z_m / k.length,
+            z_m: r(p.z_m / k.length),
             mass_kg: *kg,
             label: label.clone(),
         })
@@ -262,8 +285,8 @@ pub fn model_case(
     let base = prototype.base.map(|b| FileBase {
         rotational_stiffness_gnm_per_rad: b
             .rotational_nm_per_rad
-            .map(|v| v / k.rotational_stiffness / 1e9),
-        lateral_stiffness_mn_per_m: b.lateral_n_per_m.map(|v| v / k.lateral_stiffness / 1e6),
+            .map(|v| r(v / k.rotational_stiffness / 1e9)),
+        lateral_stiffness_mn_per_m: b.lateral_n_per_m.map(|v| r(v / k.lateral_stiffness / 1e6)),
     });
 
     let stage = prototype
@@ -273,7 +296,7 @@ pub fn model_case(
             name: s.name.clone(),
             lining: s.lining,
             stiffness_factor: s.stiffness_factor,
-            top_z_m: s.top_z_m.map(|z| z / k.length),
+            top_z_m: s.top_z_m.map(|z| r(z / k.length)),
         })
         .collect();
 
@@ -286,13 +309,13 @@ pub fn model_case(
         } => (
             "log",
             None,
-            Some(roughness_m / k.length),
-            Some(z_min_m / k.length),
+            Some(r(roughness_m / k.length)),
+            Some(r(z_min_m / k.length)),
         ),
     };
     let wind = FileWind {
-        reference_speed_m_s: w.reference_speed_m_s / k.velocity,
-        reference_height_m: w.reference_height_m / k.length,
+        reference_speed_m_s: r(w.reference_speed_m_s / k.velocity),
+        reference_height_m: r(w.reference_height_m / k.length),
         profile,
         exponent,
         roughness_m,
@@ -310,24 +333,25 @@ pub fn model_case(
         design_life_years: v.design_life_years,
         group: v.group.map(|g| FileGroup {
             count: i64::from(g.count),
-            spacing_m: g.spacing_m / k.length,
+            spacing_m: r(g.spacing_m / k.length),
             arrangement: "in-line",
         }),
     };
     let c = &prototype.criteria;
     let criteria = (!c.is_empty()).then(|| FileCriteria {
-        tip_amplitude_m: c.tip_amplitude_m.map(|a| a / k.displacement),
+        tip_amplitude_m: c.tip_amplitude_m.map(|a| r(a / k.displacement)),
         tip_amplitude_per_diameter: c.tip_amplitude_per_diameter,
-        stress_mpa: c.stress_pa.map(|s| s / k.stress / 1e6),
+        stress_mpa: c.stress_pa.map(|s| r(s / k.stress / 1e6)),
     });
 
     let file = File {
         title: format!(
             "Model 1:{} of: {} (generated by stackwake scale)",
-            k.length, prototype.title
+            factor_text(k.length),
+            prototype.title
         ),
         shell: FileShell {
-            elastic_modulus_gpa: spec.elastic_modulus_pa / 1e9,
+            elastic_modulus_gpa: r(spec.elastic_modulus_pa / 1e9),
             density_kg_m3: spec.density_kg_m3,
             poisson_ratio: spec.poisson_ratio,
             beam: match prototype.shell.beam {
@@ -361,12 +385,12 @@ pub fn model_case(
          # heights and roughness lengths are prototype / k_l; same air, same Strouhal number and\n\
          # log decrement.\n\n",
         one_line(&prototype.title),
-        k.length,
-        k.wall_thickness,
-        k.velocity,
-        k.frequency,
-        k.density,
-        k.elastic_modulus
+        factor_text(k.length),
+        factor_text(k.wall_thickness),
+        factor_text(k.velocity),
+        factor_text(k.frequency),
+        factor_text(k.density),
+        factor_text(k.elastic_modulus)
     );
     let body = toml::to_string(&file).map_err(|e| SimilitudeError::ModelCaseText {
         message: e.to_string(),

@@ -11,9 +11,11 @@ use std::fmt;
 use serde::Serialize;
 use thiserror::Error;
 
-use crate::case::Case;
-use crate::modal::{analyse_case, ModalError, ModalOptions};
-use crate::wind::{self, Verdict};
+use crate::case::{Case, VortexMethod};
+use crate::modal::{analyse_case, ModalError, ModalOptions, StageModes};
+use crate::remedy::recheck::ModeContext;
+use crate::remedy::required;
+use crate::wind::{self, ModeVortex, Verdict};
 
 /// Largest grid accepted (variants).
 pub const MAX_VARIANTS: usize = 1_000_000;
@@ -134,8 +136,18 @@ pub struct ModeRow {
     pub frequency_hz: f64,
     pub critical_speed_m_s: f64,
     pub speed_ratio: f64,
+    /// Scruton number (EN 1991-1-4 E.4), dimensionless.
+    pub scruton: f64,
     /// Governing method's tip amplitude, m (`None` when screened out).
     pub tip_amplitude_m: Option<f64>,
+    /// Governing method's largest across-wind stress, Pa (`None` when screened out).
+    pub max_stress_pa: Option<f64>,
+    /// Smallest structural log decrement that brings the mode within the criteria, by the
+    /// governing EN approach (approach 1 when GB 50009 governs), as `check`'s remedy table
+    /// sizes it: `None` when the mode needs none (within the criteria, screened out or
+    /// not judged); infinite when no decrement up to
+    /// [`crate::remedy::required::MAX_LOG_DECREMENT`] suffices.
+    pub required_log_decrement: Option<f64>,
     pub verdict: Verdict,
 }
 
@@ -171,18 +183,44 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
     Ok(vortex
         .stages
         .iter()
-        .flat_map(|s| {
-            s.modes.iter().map(|m| ModeRow {
-                stage: s.stage.clone(),
-                mode: m.mode,
-                frequency_hz: m.frequency_hz,
-                critical_speed_m_s: m.critical_speed_m_s,
-                speed_ratio: m.speed_ratio,
-                tip_amplitude_m: m.governing_summary().tip_amplitude_m,
-                verdict: m.verdict.clone(),
+        .zip(&stages)
+        .flat_map(|(s, sm)| {
+            s.modes.iter().map(move |m| {
+                let g = m.governing_summary();
+                ModeRow {
+                    stage: s.stage.clone(),
+                    mode: m.mode,
+                    frequency_hz: m.frequency_hz,
+                    critical_speed_m_s: m.critical_speed_m_s,
+                    speed_ratio: m.speed_ratio,
+                    scruton: m.scruton,
+                    tip_amplitude_m: g.tip_amplitude_m,
+                    max_stress_pa: g.max_stress_pa,
+                    required_log_decrement: required_log_decrement(case, sm, m),
+                    verdict: m.verdict.clone(),
+                }
             })
         })
         .collect())
+}
+
+/// The structural log decrement a failing mode needs (see
+/// [`ModeRow::required_log_decrement`]); the same search as `check`'s remedy table.
+fn required_log_decrement(case: &Case, sm: &StageModes, m: &ModeVortex) -> Option<f64> {
+    if !m.verdict.is_exceeds() || m.screened_out {
+        return None;
+    }
+    let mode = sm.modes.iter().find(|x| x.number == m.mode)?;
+    let ctx = ModeContext::new(case, &sm.model, mode, m);
+    let req = match ctx.governing_en() {
+        VortexMethod::En1991E2 => required::required(&ctx, |d| ctx.approach2_y_m(d)),
+        _ => required::required(&ctx, |d| ctx.approach1_y_m(d, |_| 1.0)),
+    };
+    if req.already_meets {
+        None
+    } else {
+        Some(req.log_decrement.unwrap_or(f64::INFINITY))
+    }
 }
 
 /// Severity class of a variant for the lock-in map, worst first in [`Class::ALL`].
@@ -265,7 +303,30 @@ pub struct MapCell {
 pub struct LockInMap {
     pub x: Vary,
     pub y: Vary,
+    /// The swept keys the map does not show: each cell is the worst case over them.
+    pub hidden: Vec<Vary>,
     pub cells: Vec<MapCell>,
+}
+
+impl LockInMap {
+    /// One line saying that each cell is the worst case over the keys the map does not
+    /// show, or `None` when the map shows every swept key.
+    pub fn hidden_keys_note(&self) -> Option<String> {
+        if self.hidden.is_empty() {
+            return None;
+        }
+        let keys: Vec<String> = self
+            .hidden
+            .iter()
+            .map(|v| format!("{} ({} values, {} to {})", v.key, v.steps, v.from, v.to))
+            .collect();
+        let combos: usize = self.hidden.iter().map(|v| v.steps).product();
+        Some(format!(
+            "Each cell is the WORST case over {combos} combinations of the key{} not shown: {};              sweep.csv has every variant.",
+            if self.hidden.len() == 1 { "" } else { "s" },
+            keys.join(", ")
+        ))
+    }
 }
 
 /// Builds the map over keys `kx`, `ky` of the grid.
@@ -299,6 +360,12 @@ pub fn lock_in_map(vary: &[Vary], kx: usize, ky: usize, variants: &[Variant]) ->
     LockInMap {
         x: vary[kx].clone(),
         y: vary[ky].clone(),
+        hidden: vary
+            .iter()
+            .enumerate()
+            .filter(|(k, _)| *k != kx && *k != ky)
+            .map(|(_, v)| v.clone())
+            .collect(),
         cells,
     }
 }
@@ -335,5 +402,28 @@ mod tests {
         assert_eq!(pts[5], vec![1.0, 30.0]);
         let big = vec![Vary::parse("a=0:1:2000").unwrap(); 2];
         assert_eq!(grid_size(&big), None);
+    }
+
+    #[test]
+    fn map_names_the_hidden_keys() {
+        let vary = vec![
+            Vary::parse("a=0:1:2").unwrap(),
+            Vary::parse("b=10:30:3").unwrap(),
+            Vary::parse("c=5:6:4").unwrap(),
+        ];
+        let variants: Vec<Variant> = (0..24)
+            .map(|i| Variant {
+                index: i,
+                values: grid_point(&vary, i),
+                outcome: VariantOutcome::Invalid("x".into()),
+            })
+            .collect();
+        let map = lock_in_map(&vary, 0, 1, &variants);
+        assert_eq!(map.hidden, vec![vary[2].clone()]);
+        let note = map.hidden_keys_note().unwrap();
+        assert!(note.contains("WORST case over 4 combinations of the key not shown: c (4 values, 5 to 6)"), "{note}");
+        assert!(lock_in_map(&vary[..2], 0, 1, &variants[..6])
+            .hidden_keys_note()
+            .is_none());
     }
 }
