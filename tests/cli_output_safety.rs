@@ -185,3 +185,45 @@ fn a_successful_run_replaces_every_file_and_leaves_no_temporary_folder() {
         .collect();
     assert_eq!(names, vec!["out".to_string()]);
 }
+
+#[test]
+fn modes_after_check_leaves_only_its_own_outputs_and_the_users_files() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let out = dir.path().join("out");
+    let check = stackwake()
+        .arg("check")
+        .arg("--out")
+        .arg(&out)
+        .output()
+        .expect("run");
+    assert!(matches!(check.status.code(), Some(0 | 1 | 3)), "{check:?}");
+    assert!(out.join("report.html").is_file());
+    std::fs::write(out.join("notes.txt"), b"user's own file").expect("write");
+    // A file of the check run that the user edited is theirs from then on.
+    std::fs::write(out.join("lock_in.csv"), b"edited by hand").expect("write");
+    assert_eq!(run_demo(&out, &["--modes", "5"]).0, Some(0));
+    let mut names: Vec<String> = std::fs::read_dir(&out)
+        .expect("list")
+        .map(|e| e.expect("entry").file_name().to_string_lossy().into_owned())
+        .collect();
+    names.sort();
+    assert_eq!(
+        names,
+        [
+            ".stackwake-manifest",
+            "lock_in.csv",
+            "mode_shapes.csv",
+            "modes.csv",
+            "notes.txt",
+            "sections.csv"
+        ]
+    );
+    assert_eq!(
+        std::fs::read(out.join("notes.txt")).expect("read"),
+        b"user's own file"
+    );
+    let manifest = std::fs::read_to_string(out.join(".stackwake-manifest")).expect("read");
+    assert!(manifest.contains(" modes.csv\n") && !manifest.contains("report.html"));
+    // No temporary folder left beside the output.
+    assert_eq!(std::fs::read_dir(dir.path()).expect("list").count(), 1);
+}

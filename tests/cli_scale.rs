@@ -217,3 +217,57 @@ fn tunnel_speed_outside_the_range_is_a_warning() {
         .success()
         .stderr(predicate::str::contains("outside the tunnel range"));
 }
+
+/// Significant digits of a number as written (`0.00782609` -> 6, `1150.0` -> 3).
+fn significant_digits(text: &str) -> usize {
+    let mantissa = text.split(['e', 'E']).next().unwrap_or("");
+    let digits: String = mantissa.chars().filter(char::is_ascii_digit).collect();
+    let digits = digits.trim_start_matches('0');
+    let digits = if mantissa.contains('.') {
+        digits.trim_end_matches('0')
+    } else {
+        digits
+    };
+    digits.len().max(1)
+}
+
+#[test]
+fn the_plan_prints_short_numbers_and_the_note_has_one_plan_heading() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("plan");
+    let stdout = stackwake()
+        .args(["scale", EXAMPLE, "--out"])
+        .arg(&out)
+        .assert()
+        .success()
+        .get_output()
+        .stdout
+        .clone();
+    let stdout = String::from_utf8(stdout).unwrap();
+    // k_l = 125: point masses scale by k_l^3 = 1 953 125, shown in exponent form.
+    assert!(stdout.contains("1.95312e6"), "{stdout}");
+    assert!(!stdout.contains("1953125.000000"), "{stdout}");
+    // Every number of the model case file has at most 6 significant digits.
+    let text = std::fs::read_to_string(out.join("model_case.toml")).unwrap();
+    for line in text.lines().filter(|l| !l.starts_with('#')) {
+        if let Some((key, value)) = line.split_once(" = ") {
+            if value.parse::<f64>().is_ok() {
+                assert!(significant_digits(value) <= 6, "{key} = {value}");
+            }
+        }
+    }
+    assert!(text.contains("wall_m = 0.00782609"), "{text}");
+
+    // The check note of a case with [model] names the plan's section once.
+    let note_dir = dir.path().join("note");
+    let code = stackwake()
+        .args(["check", EXAMPLE, "--out"])
+        .arg(&note_dir)
+        .output()
+        .unwrap()
+        .status
+        .code();
+    assert!(matches!(code, Some(0 | 1 | 3)), "{code:?}");
+    let html = std::fs::read_to_string(note_dir.join("report.html")).unwrap();
+    assert_eq!(html.matches("Aeroelastic model plan").count(), 1, "{html}");
+}
