@@ -161,7 +161,10 @@ fn an_optional_key_absent_from_the_file_can_be_swept() {
         .iter()
         .find(|(k, _)| k.starts_with("0.2 ") && k[4..] == first.0[5..])
         .expect("the same stage and mode at St 0.2");
-    assert!((first.1 / same.1 - 0.20 / 0.16).abs() < 1e-9, "{first:?} {same:?}");
+    assert!(
+        (first.1 / same.1 - 0.20 / 0.16).abs() < 1e-9,
+        "{first:?} {same:?}"
+    );
     // A misspelt absent key is refused before any work, saying how optional keys are swept.
     Command::cargo_bin("stackwake")
         .unwrap()
@@ -182,8 +185,9 @@ fn an_optional_key_absent_from_the_file_can_be_swept() {
 #[test]
 fn required_log_decrement_is_the_smallest_that_passes() {
     use stackwake::commands::sweep::run_variant;
-    use stackwake::sweep::{Vary, VariantOutcome};
-    let table = stackwake::input::parse_case_text(stackwake::input::DEMO_CASE_TOML, "demo").unwrap();
+    use stackwake::sweep::{VariantOutcome, Vary};
+    let table =
+        stackwake::input::parse_case_text(stackwake::input::DEMO_CASE_TOML, "demo").unwrap();
     let dir = std::path::Path::new(".");
     let rows = |delta: f64| {
         let vary = vec![Vary::parse(&format!("vortex.log_decrement={delta}:{delta}:1")).unwrap()];
@@ -193,10 +197,7 @@ fn required_log_decrement_is_the_smallest_that_passes() {
         }
     };
     let base = rows(0.03);
-    let failing: Vec<_> = base
-        .iter()
-        .filter(|r| r.verdict.is_exceeds())
-        .collect();
+    let failing: Vec<_> = base.iter().filter(|r| r.verdict.is_exceeds()).collect();
     assert!(!failing.is_empty(), "the demo has a failing mode");
     // Same number as `check`'s remedy sizing (approach 1 governs the demo).
     let case = stackwake::input::demo_case();
@@ -224,10 +225,16 @@ fn required_log_decrement_is_the_smallest_that_passes() {
             .iter()
             .find(|d| d.stage == r.stage && d.mode == r.mode)
             .and_then(|d| d.approach1.log_decrement);
-        assert_eq!(r.required_log_decrement, sized, "{} mode {}", r.stage, r.mode);
+        assert_eq!(
+            r.required_log_decrement, sized,
+            "{} mode {}",
+            r.stage, r.mode
+        );
     }
     for r in failing {
-        let need = r.required_log_decrement.expect("a failing mode has a requirement");
+        let need = r
+            .required_log_decrement
+            .expect("a failing mode has a requirement");
         assert!(need.is_finite() && need > 0.03, "{need}");
         let at = |d: f64| {
             rows(d)
@@ -235,7 +242,17 @@ fn required_log_decrement_is_the_smallest_that_passes() {
                 .find(|x| x.stage == r.stage && x.mode == r.mode)
                 .unwrap()
         };
-        assert!(!at(need * 1.001).verdict.is_exceeds(), "{} mode {}", r.stage, r.mode);
-        assert!(at(need * 0.999).verdict.is_exceeds(), "{} mode {}", r.stage, r.mode);
+        assert!(
+            !at(need * 1.001).verdict.is_exceeds(),
+            "{} mode {}",
+            r.stage,
+            r.mode
+        );
+        assert!(
+            at(need * 0.999).verdict.is_exceeds(),
+            "{} mode {}",
+            r.stage,
+            r.mode
+        );
     }
 }

@@ -147,7 +147,10 @@ fn model_masses_follow_the_mass_ratio() {
     assert!((20000.0 / model.point_masses[0].mass_kg / k.point_mass - 1.0).abs() < FILE_ROUNDING);
     assert!((model.point_masses[0].z_m * k_l / 90.0 - 1.0).abs() < FILE_ROUNDING);
     let b = model.base.expect("springs");
-    assert!((5e11 / b.rotational_nm_per_rad.unwrap() / k.rotational_stiffness - 1.0).abs() < FILE_ROUNDING);
+    assert!(
+        (5e11 / b.rotational_nm_per_rad.unwrap() / k.rotational_stiffness - 1.0).abs()
+            < FILE_ROUNDING
+    );
     assert!((4e9 / b.lateral_n_per_m.unwrap() / k.lateral_stiffness - 1.0).abs() < FILE_ROUNDING);
     // Wind at model scale: speeds / k_v, heights / k_l; log decrement identical.
     assert!((model.wind.reference_speed_m_s * k.velocity / 30.0 - 1.0).abs() < FILE_ROUNDING);

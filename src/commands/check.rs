@@ -232,7 +232,9 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
 /// message repeated for several modes of a stage is given once.
 pub fn warnings(results: &CheckResults) -> Vec<String> {
     let mut out = results.remedies.warnings.clone();
-    out.extend(crate::report::station_table::station_count_warning(&results.case.shell.stations));
+    out.extend(crate::report::station_table::station_count_warning(
+        &results.case.shell.stations,
+    ));
     for s in &results.vortex.stages {
         for w in &s.warnings {
             out.push(format!("stage \"{}\": {w}", s.stage));

@@ -109,7 +109,11 @@ mod tests {
         }
         let mut fields: &'static [&'static str] = &[];
         let _ = T::deserialize(Grab(&mut fields));
-        assert!(!fields.is_empty(), "{} has no fields", std::any::type_name::<T>());
+        assert!(
+            !fields.is_empty(),
+            "{} has no fields",
+            std::any::type_name::<T>()
+        );
         fields
     }
 
@@ -125,7 +129,9 @@ mod tests {
             if head.starts_with('[')
                 && head.ends_with(']')
                 && !name.is_empty()
-                && name.chars().all(|c| c.is_ascii_lowercase() || c == '_' || c == '.')
+                && name
+                    .chars()
+                    .all(|c| c.is_ascii_lowercase() || c == '_' || c == '.')
             {
                 section = name.to_string();
                 out.push((String::new(), section.clone()));
@@ -152,11 +158,14 @@ mod tests {
     fn template_shows_every_key_the_reader_accepts() {
         use crate::input::raw::*;
         let keys = template_keys();
-        let has = |section: &str, key: &str| {
-            keys.iter().any(|(s, k)| s == section && k == key)
-        };
+        let has = |section: &str, key: &str| keys.iter().any(|(s, k)| s == section && k == key);
         // Sections: each top-level key is a header, an array-of-tables header or a key.
-        let sub_sections = ["shell.stations", "vortex.group", "remedy.tmd", "remedy.strakes"];
+        let sub_sections = [
+            "shell.stations",
+            "vortex.group",
+            "remedy.tmd",
+            "remedy.strakes",
+        ];
         for key in serde_fields::<RawCase>() {
             let prefix = format!("{key}.");
             assert!(

@@ -132,7 +132,9 @@ pub fn insert_number(table: &mut Table, path: &str, value: f64) -> Result<(), Ke
         reason,
     };
     let Some((Step::Key(last), parents)) = steps.split_last() else {
-        return Err(missing("an array entry cannot be created by a sweep".into()));
+        return Err(missing(
+            "an array entry cannot be created by a sweep".into(),
+        ));
     };
     // Work on the table as a value (so that array entries and tables walk alike) and put
     // it back whatever happens.
@@ -274,7 +276,10 @@ method = "en1991-e1"
         let e = insert_number(&mut t, "shell.stations[7].wall_m", 0.3).unwrap_err();
         assert!(e.to_string().contains("has 2 entries"), "{e}");
         let e = insert_number(&mut t, "vortex.method.x", 1.0).unwrap_err();
-        assert!(e.to_string().contains("`vortex.method` is not a table"), "{e}");
+        assert!(
+            e.to_string().contains("`vortex.method` is not a table"),
+            "{e}"
+        );
     }
 
     #[test]

@@ -228,7 +228,10 @@ mod tests {
             "s.csv",
         )
         .unwrap_err();
-        assert!(stations[0].to_string().starts_with("s.csv line 6,"), "{stations:?}");
+        assert!(
+            stations[0].to_string().starts_with("s.csv line 6,"),
+            "{stations:?}"
+        );
     }
 
     #[test]

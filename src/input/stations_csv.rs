@@ -279,7 +279,9 @@ fn header_with_unit(header: &str) -> HeaderName {
     } else {
         HeaderName::Refused(format!(
             "unit \"{unit}\" is not read; give {} in metres (header {} or {} (m))",
-            STATION_COLUMNS[k], STATION_COLUMNS[k], ["z", "outer_diameter", "wall"][k]
+            STATION_COLUMNS[k],
+            STATION_COLUMNS[k],
+            ["z", "outer_diameter", "wall"][k]
         ))
     }
 }
@@ -350,7 +352,10 @@ mod tests {
         // Thousands marks or two commas stay refused: the value would be a guess.
         let e = errs("z_m;outer_diameter_m;wall_m\n1.000,5;12;0,45\n");
         assert_eq!(e.len(), 1, "{e:?}");
-        assert!(e[0].contains(r#"column z_m = "1.000,5": not a number"#), "{e:?}");
+        assert!(
+            e[0].contains(r#"column z_m = "1.000,5": not a number"#),
+            "{e:?}"
+        );
     }
 
     #[test]
@@ -384,7 +389,10 @@ mod tests {
         );
         let e = errs("height (m),outer_diameter_m,wall_m\n0,12,0.5\n");
         assert_eq!(e.len(), 1, "{e:?}");
-        assert!(e[0].starts_with(r#"s.csv header = "height (m)": unknown column"#), "{e:?}");
+        assert!(
+            e[0].starts_with(r#"s.csv header = "height (m)": unknown column"#),
+            "{e:?}"
+        );
     }
 
     #[test]

@@ -372,7 +372,10 @@ mod tests {
     fn an_earlier_runs_files_go_and_the_users_stay() {
         let dir = tempfile::tempdir().unwrap();
         let target = dir.path().join("out");
-        commit(&target, &[("a.csv", b"1"), ("note.html", b"old"), ("b.csv", b"2")]);
+        commit(
+            &target,
+            &[("a.csv", b"1"), ("note.html", b"old"), ("b.csv", b"2")],
+        );
         std::fs::write(target.join("mine.txt"), b"user").unwrap();
         // The user edited b.csv: it is theirs now.
         std::fs::write(target.join("b.csv"), b"2, checked").unwrap();
@@ -386,7 +389,10 @@ mod tests {
         assert_eq!(names, [MANIFEST, "a.csv", "b.csv", "mine.txt"]);
         assert_eq!(std::fs::read(target.join("a.csv")).unwrap(), b"10");
         let m = std::fs::read_to_string(target.join(MANIFEST)).unwrap();
-        assert_eq!(parse_manifest(&m), vec![("a.csv".to_string(), Stamp::of(b"10"))]);
+        assert_eq!(
+            parse_manifest(&m),
+            vec![("a.csv".to_string(), Stamp::of(b"10"))]
+        );
         assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
     }
 
@@ -419,8 +425,9 @@ mod tests {
             st.fnv1a, st.len, st.fnv1a, st.len
         );
         std::fs::write(target.join(MANIFEST), text).unwrap();
-        assert!(parse_manifest(&std::fs::read_to_string(target.join(MANIFEST)).unwrap())
-            .is_empty());
+        assert!(
+            parse_manifest(&std::fs::read_to_string(target.join(MANIFEST)).unwrap()).is_empty()
+        );
         commit(&target, &[("a.csv", b"1")]);
         assert_eq!(std::fs::read(dir.path().join("precious")).unwrap(), b"p");
     }

@@ -42,8 +42,7 @@ pub fn slope_breaks(stations: &[Station], tol_m: f64) -> Vec<usize> {
             }
             let t = (s.z_m - a.z_m) / (b.z_m - a.z_m);
             let off = |pa: f64, ps: f64, pb: f64| (pa + t * (pb - pa) - ps).abs();
-            off(a.outer_diameter_m, s.outer_diameter_m, b.outer_diameter_m)
-                > STRAIGHT_TOLERANCE_M
+            off(a.outer_diameter_m, s.outer_diameter_m, b.outer_diameter_m) > STRAIGHT_TOLERANCE_M
                 || off(a.wall_m, s.wall_m, b.wall_m) > STRAIGHT_TOLERANCE_M
         })
         .collect();
@@ -72,10 +71,7 @@ fn fit_runs(stations: &[Station], tol_m: f64) -> Vec<usize> {
         let a = stations[anchor];
         let s = stations[j];
         let dz = s.z_m - a.z_m;
-        let d = [
-            s.outer_diameter_m - a.outer_diameter_m,
-            s.wall_m - a.wall_m,
-        ];
+        let d = [s.outer_diameter_m - a.outer_diameter_m, s.wall_m - a.wall_m];
         let fits = dz > 0.0
             && (0..2).all(|k| {
                 let slope = d[k] / dz;
@@ -187,7 +183,10 @@ mod tests {
         assert_eq!(shown_stations(&s), vec![0, 3000]);
         assert!(condensed_note(&s).unwrap().contains("3001 stations"));
         let w = station_count_warning(&s).unwrap();
-        assert!(w.contains("3001 stations") && w.contains("condensed to 2 rows"), "{w}");
+        assert!(
+            w.contains("3001 stations") && w.contains("condensed to 2 rows"),
+            "{w}"
+        );
     }
 
     #[test]
@@ -209,7 +208,10 @@ mod tests {
                 st(z, d, t)
             })
             .collect();
-        assert_eq!(slope_breaks(&s, CONDENSE_TOLERANCE_M), vec![0, 600, 1500, 2500]);
+        assert_eq!(
+            slope_breaks(&s, CONDENSE_TOLERANCE_M),
+            vec![0, 600, 1500, 2500]
+        );
     }
 
     #[test]

@@ -421,7 +421,12 @@ mod tests {
         let map = lock_in_map(&vary, 0, 1, &variants);
         assert_eq!(map.hidden, vec![vary[2].clone()]);
         let note = map.hidden_keys_note().unwrap();
-        assert!(note.contains("WORST case over 4 combinations of the key not shown: c (4 values, 5 to 6)"), "{note}");
+        assert!(
+            note.contains(
+                "WORST case over 4 combinations of the key not shown: c (4 values, 5 to 6)"
+            ),
+            "{note}"
+        );
         assert!(lock_in_map(&vary[..2], 0, 1, &variants[..6])
             .hidden_keys_note()
             .is_none());
