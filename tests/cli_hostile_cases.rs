@@ -156,8 +156,11 @@ fn rows() -> Vec<Row> {
         row("missing wind section", BASE.split("[wind]").next().unwrap_or_default(),
             "wind: missing section [wind]: the vortex-shedding check needs the site wind; give at least reference_speed_m_s"),
         // Stations CSV from a spreadsheet.
-        csv_row("CSV comma decimals", "z_m;outer_diameter_m;wall_m\n0;12;0.4\n50;10;0,3\n100;8;0.2\n",
+        // (A `;` file reads decimal commas; in a tab file the comma may mark thousands.)
+        csv_row("CSV comma decimals in a tab file", "z_m\touter_diameter_m\twall_m\n0\t12\t0.4\n50\t10\t0,3\n100\t8\t0.2\n",
             "stations.csv line 3, column wall_m = \"0,3\": not a number; use a point as the decimal separator"),
+        csv_row("CSV header with a unit in mm", "z (m),outer_diameter (m),wall (mm)\n0,12,400\n50,10,300\n100,8,200\n",
+            "stations.csv header = \"wall (mm)\": unit \"mm\" is not read; give wall_m in metres (header wall_m or wall (m))"),
         csv_row("CSV stray unit", "z_m,outer_diameter_m,wall_m\n0,12 m,0.4\n50,10,0.3\n100,8,0.2\n",
             "stations.csv line 2, column outer_diameter_m = \"12 m\": not a number; leave out the unit (the column name gives it: metres)"),
         csv_row("CSV missing column", "z_m,outer_diameter_m\n0,12\n50,10\n100,8\n",
@@ -201,8 +204,15 @@ fn base_case_runs() {
     let (code, stderr, dir) = run_row(BASE.as_bytes(), None);
     assert_eq!(code, Some(0), "{stderr}");
     assert!(dir.path().join("out/modes.csv").is_file());
-    let (code, stderr, _dir) = run_row(base_with_csv().as_bytes(), Some(GOOD_CSV.as_bytes()));
+    let (code, stderr, good) = run_row(base_with_csv().as_bytes(), Some(GOOD_CSV.as_bytes()));
     assert_eq!(code, Some(0), "{stderr}");
+    // A spreadsheet export with `;` and decimal commas, headers with units in brackets.
+    let european = "z (m);outer diameter (m);wall (m)\n0;12;0,4\n50;10;0,3\n100;8;0,2\n";
+    let (code, stderr, dir) = run_row(base_with_csv().as_bytes(), Some(european.as_bytes()));
+    assert_eq!(code, Some(0), "{stderr}");
+    // The same stations, so the same modes to the last digit.
+    let modes = |d: &tempfile::TempDir| std::fs::read(d.path().join("out/modes.csv")).unwrap();
+    assert_eq!(modes(&dir), modes(&good));
 }
 
 #[test]
