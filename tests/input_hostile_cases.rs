@@ -233,8 +233,13 @@ fn csv_columns_in_any_order_with_spaces_load() {
 }
 
 #[test]
-fn csv_comma_decimals_are_explained() {
+fn csv_comma_decimals_are_read_after_semicolons_and_explained_after_tabs() {
+    // The `;` leaves the comma nothing to be but the decimal mark.
     let csv = b"z_m;outer_diameter_m;wall_m\n0;12;0.4\n50;10;0,45\n100;8;0.2\n";
+    let case = load_with_csv(csv).expect("semicolon CSV with a decimal comma loads");
+    assert_eq!(case.shell.stations[1].wall_m, 0.45);
+    // After tabs a comma may also mark thousands: refused.
+    let csv = b"z_m\touter_diameter_m\twall_m\n0\t12\t0.4\n50\t10\t0,45\n100\t8\t0.2\n";
     let err = load_with_csv(csv).unwrap_err().to_string();
     assert!(
         err.contains(r#"stations.csv line 3, column wall_m = "0,45": not a number; use a point as the decimal separator"#),
