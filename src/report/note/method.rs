@@ -12,7 +12,9 @@ pub(super) fn method_name(m: VortexMethod) -> &'static str {
     }
 }
 
-pub(super) const METHOD: &str = r#"<p>The shell is modelled as a cantilever of Hermite beam elements (mesh nodes at every
+/// The method text (our own wording; clauses of the standards named).
+pub(super) const METHOD: &str = r#"
+<p>The shell is modelled as a cantilever of Hermite beam elements (mesh nodes at every
 station, lining end and point mass; consistent mass). With the Timoshenko option the elements
 include shear deformation with Cowper's shear coefficient for a thin-walled hollow circular
 section (G. R. Cowper, <i>The shear coefficient in Timoshenko's beam theory</i>, J. Appl. Mech.

@@ -23,7 +23,8 @@ th { background: #e8e8e8; text-align: left; font-weight: bold; font-size: 7.5pt;
   line-height: 1.2; }
 td.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
 td.bad { font-weight: bold; }
-table.constants { width: 100%; page-break-inside: auto; break-inside: auto; }
+table.constants { width: 100%; table-layout: fixed; page-break-inside: auto; break-inside: auto; }
+table.constants td { overflow-wrap: anywhere; }
 table.constants tr { page-break-inside: avoid; break-inside: avoid; }
 sub { font-size: 75%; line-height: 0; }
 table.title { width: 100%; font-size: 8.5pt; margin: 0 0 4mm 0; }

@@ -154,8 +154,8 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         caption: "Peak across-wind tip amplitude by EN 1991-1-4 approach 1 against the mean \
                   wind speed at each mode's shedding height z_s (the v_m of the tables), for \
                   scaled site winds from below each mode's critical speed to past its design \
-                  speed v_m,i (dashed line per mode i); modes screened out by E.1.2 at the design wind \
-                  are not drawn."
+                  speed v_m,i (dashed line per mode i); modes screened out by E.1.2 at the \
+                  design wind are not drawn."
             .into(),
         svg: style::render(&fig, "response.svg")?,
     })
