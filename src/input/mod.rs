@@ -368,6 +368,12 @@ mod tests {
         let csv = std::fs::read_to_string(dir.join("stations.csv")).expect("read");
         let from_text =
             parse_case_with_csv(&text, "csv_stations.toml", Some(&csv)).expect("text loads");
+        // Same model; only the reader knows which file (and digest) it came from.
+        assert!(from_disk.source.is_some() && from_text.source.is_none());
+        let from_disk = Case {
+            source: None,
+            ..from_disk
+        };
         assert_eq!(from_disk, from_text);
         let err = parse_case_with_csv(&text, "csv_stations.toml", None).unwrap_err();
         assert!(matches!(err, InputError::StationsCsv { .. }), "{err}");
