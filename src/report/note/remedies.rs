@@ -25,8 +25,9 @@ pub(super) fn write(o: &mut String, remedies: &crate::remedy::RemedyResults) {
     for r in &rows {
         let _ = writeln!(
             o,
-            "<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td>\
-             <td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
+            "<tr><td>{}</td><td class=\"n\">{}</td><td>{}</td><td class=\"n\">{}</td>\
+             <td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td>\
+             <td class=\"n\">{}</td><td class=\"n\">{}</td><td>{}</td><td>{}</td></tr>",
             html_escape(&r.stage),
             r.mode,
             html_escape(&r.remedy),
