@@ -29,21 +29,6 @@ pub use markup::html_escape;
 use super::svg::Plot;
 use super::{ReportInput, CAUTIONS};
 
-/// The section headings of the note, in order (without their numbers); the remedies and
-/// the model plan appear only when present.
-pub const SECTION_HEADINGS: [&str; 10] = [
-    "Scope and cautions",
-    "Inputs",
-    "Method",
-    "Natural modes by stage",
-    "Vortex-shedding verdicts",
-    "Stage comparison",
-    "Loads",
-    "Remedies",
-    "Aeroelastic model plan",
-    "Warnings",
-];
-
 /// Renders the design note. `date` is printed as given (ISO date), so tests can fix it.
 pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
     let plot = |file: &str| plots.iter().position(|p| p.file == file);
