@@ -70,6 +70,8 @@ fn case() -> Case {
         criteria: Criteria::default(),
         model: None,
         remedy: None,
+        project: Default::default(),
+        source: None,
     }
 }
 

@@ -28,6 +28,46 @@ pub struct Case {
     pub model: Option<ModelSpec>,
     /// Remedies to size and re-check (`[remedy]`), if given.
     pub remedy: Option<RemedySpec>,
+    /// Title-block keys of the design note (`[project]`); every key optional.
+    pub project: Project,
+    /// Which file the case was read from and its SHA-256, set by the reader
+    /// (`input::load_case`, `input::demo_case`); `None` for a case built in code.
+    pub source: Option<CaseSource>,
+}
+
+/// `[project]`: free text for the design note's title block (trimmed; empty = absent).
+#[derive(Debug, Clone, Default, PartialEq, Eq, Serialize)]
+pub struct Project {
+    pub job: Option<String>,
+    pub revision: Option<String>,
+    pub prepared_by: Option<String>,
+    pub checked_by: Option<String>,
+}
+
+/// The identity of the case file a result was computed from.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize)]
+pub struct CaseSource {
+    /// The file name as given (the built-in demo: `data/demo.toml`).
+    pub file_name: String,
+    /// SHA-256 of the exact bytes read (the demo: of the text embedded in the binary),
+    /// 64 lower-case hex digits.
+    pub sha256_hex: String,
+    /// True for the built-in demo case (no file was read).
+    pub built_in_demo: bool,
+}
+
+impl CaseSource {
+    /// The identity of `bytes` read from `file_name`.
+    pub fn of_bytes(file_name: &str, bytes: &[u8], built_in_demo: bool) -> Self {
+        use sha2::{Digest, Sha256};
+        let digest = Sha256::digest(bytes);
+        let sha256_hex = digest.iter().map(|b| format!("{b:02x}")).collect();
+        CaseSource {
+            file_name: file_name.to_string(),
+            sha256_hex,
+            built_in_demo,
+        }
+    }
 }
 
 /// Beam theory of the shell elements.

@@ -9,7 +9,23 @@ use stackwake::input::{demo_case, load_case};
 #[test]
 fn demo_file_on_disk_matches_the_embedded_demo() {
     let from_disk = load_case(Path::new("data/demo.toml")).expect("data/demo.toml loads");
-    assert_eq!(from_disk, demo_case());
+    let demo = demo_case();
+    // Same bytes, so the same SHA-256; the demo says it is the embedded text.
+    let (disk_src, demo_src) = (
+        from_disk.source.clone().unwrap(),
+        demo.source.clone().unwrap(),
+    );
+    assert_eq!(disk_src.sha256_hex, demo_src.sha256_hex);
+    assert!(demo_src.built_in_demo && !disk_src.built_in_demo);
+    let from_disk = stackwake::case::Case {
+        source: None,
+        ..from_disk
+    };
+    let demo = stackwake::case::Case {
+        source: None,
+        ..demo
+    };
+    assert_eq!(from_disk, demo);
     assert!(from_disk.title.starts_with("Invented demo"));
     assert_eq!(from_disk.shell.height_m(), 210.0);
     assert_eq!(from_disk.stages[0].top_z_m, Some(140.0));

@@ -110,3 +110,173 @@ fn tables_list_every_stage_and_mode() {
         assert_eq!(modes, &want, "verdict table of {}", v.stage);
     }
 }
+
+/// Rows (cell texts) of the table after each `<h4>` whose text is `title`, in document order.
+fn tables_after_h4(doc: &roxmltree::Document, title: &str) -> Vec<(Vec<String>, Vec<Vec<String>>)> {
+    let text = |n: roxmltree::Node| -> String {
+        n.descendants()
+            .filter(|d| d.is_text())
+            .filter_map(|d| d.text())
+            .collect()
+    };
+    doc.descendants()
+        .filter(|n| n.has_tag_name("h4") && text(*n) == title)
+        .filter_map(|h| {
+            h.next_siblings()
+                .skip(1)
+                .filter(|n| n.is_element())
+                .take_while(|n| !n.has_tag_name("h4") && !n.has_tag_name("h3"))
+                .find(|n| n.has_tag_name("table"))
+        })
+        .map(|table| {
+            let head = table
+                .descendants()
+                .filter(|n| n.has_tag_name("th"))
+                .map(text)
+                .collect();
+            let rows = table
+                .descendants()
+                .filter(|n| n.has_tag_name("tr"))
+                .map(|tr| {
+                    tr.children()
+                        .filter(|c| c.has_tag_name("td"))
+                        .map(text)
+                        .collect::<Vec<_>>()
+                })
+                .filter(|r| !r.is_empty())
+                .collect();
+            (head, rows)
+        })
+        .collect()
+}
+
+#[test]
+fn every_intermediate_value_of_every_method_is_tabulated() {
+    let html = demo_html();
+    let doc = parse(&html);
+    let results = analyse(stackwake::input::demo_case(), CheckOptions::default()).unwrap();
+    let f = |x: f64, d: usize| format!("{x:.d$}");
+    let e = |x: f64| format!("{x:.3e}");
+    let a1 = tables_after_h4(&doc, "EN 1991-1-4 approach 1 (E.1.5.2)");
+    let a2 = tables_after_h4(&doc, "EN 1991-1-4 approach 2 (E.1.5.3)");
+    let gb = tables_after_h4(&doc, "GB 50009-2012 Appendix H.1");
+    let stages_with_a1: Vec<_> = results
+        .vortex
+        .stages
+        .iter()
+        .filter(|s| s.modes.iter().any(|m| m.approach1.is_some()))
+        .collect();
+    assert_eq!(a1.len(), stages_with_a1.len());
+    assert_eq!(a2.len(), stages_with_a1.len());
+    assert_eq!(gb.len(), results.vortex.stages.len());
+    // Heads carry the standard's symbols, not column names.
+    for h in [
+        "clat,0",
+        "clat",
+        "Lj (m)",
+        "centre of Lj",
+        "K (-)",
+        "KW (-)",
+        "yF,max (m)",
+    ] {
+        assert!(
+            a1[0].0.iter().any(|c| c.contains(h)),
+            "approach 1 head {h}: {:?}",
+            a1[0].0
+        );
+    }
+    for h in ["Cc (-)", "Ka", "aL (-)", "\u{3c3}y (m)", "kp (-)"] {
+        assert!(
+            a2[0].0.iter().any(|c| c.contains(h)),
+            "approach 2 head {h}: {:?}",
+            a2[0].0
+        );
+    }
+    for h in ["regime", "H1 (m)", "\u{3bb}j (-)", "\u{3b6}j (-)"] {
+        assert!(
+            gb[0].0.iter().any(|c| c.contains(h)),
+            "GB head {h}: {:?}",
+            gb[0].0
+        );
+    }
+    assert!(!html.contains("base_moment_mnm") && !html.contains("tip_amplitude_m<"));
+    for (k, s) in stages_with_a1.iter().enumerate() {
+        for m in &s.modes {
+            let (Some(r1), Some(r2)) = (&m.approach1, &m.approach2) else {
+                continue;
+            };
+            let want1 = vec![
+                m.mode.to_string(),
+                f(r1.c_lat0, 3),
+                f(r1.speed_ratio_lj, 3),
+                f(r1.c_lat, 3),
+                f(r1.correlation_length_m, 1),
+                f(r1.correlation_centre_z_m, 1),
+                f(r1.k, 4),
+                format!(
+                    "{}{}",
+                    f(r1.kw, 3),
+                    if r1.kw_uncapped > r1.kw { " (cap)" } else { "" }
+                ),
+                f(r1.y_max_m, 4),
+                f(r1.tip_amplitude_m, 4),
+                e(r1.fatigue_cycles),
+            ];
+            assert!(
+                a1[k].1.contains(&want1),
+                "{} mode {}: {want1:?} in {:?}",
+                s.stage,
+                m.mode,
+                a1[k].1
+            );
+            let want2 = vec![
+                m.mode.to_string(),
+                f(r2.c_c, 4),
+                f(r2.k_a, 3),
+                f(r2.a_l, 2),
+                f(r2.sigma_y_m, 4),
+                f(r2.peak_factor, 3),
+                f(r2.y_max_m, 4),
+                f(r2.tip_amplitude_m, 4),
+                e(r2.fatigue_cycles),
+            ];
+            assert!(
+                a2[k].1.contains(&want2),
+                "{} mode {}: {want2:?}",
+                s.stage,
+                m.mode
+            );
+        }
+    }
+    for (k, s) in results.vortex.stages.iter().enumerate() {
+        for m in &s.modes {
+            let g = &m.gb50009;
+            let row = gb[k]
+                .1
+                .iter()
+                .find(|r| r[0] == m.mode.to_string())
+                .expect("GB row");
+            assert_eq!(row[1], f(g.diameter_m, 2));
+            assert_eq!(row[2], f(g.critical_speed_m_s, 2));
+            assert_eq!(row[3], e(g.reynolds));
+            assert_eq!(row[6], g.lock_in_start_m.map_or("-".into(), |v| f(v, 1)));
+            assert_eq!(row[7], g.lambda_used.map_or("-".into(), |v| f(v, 3)));
+            assert_eq!(row[8], f(g.damping_ratio, 4));
+        }
+    }
+    // Table 3.1 lists every registry entry.
+    for entry in stackwake::wind::constants::registry() {
+        assert!(
+            html.contains(&format!(
+                "<td>{}</td>",
+                entry
+                    .name
+                    .replace('&', "&amp;")
+                    .replace('<', "&lt;")
+                    .replace('>', "&gt;")
+            )),
+            "{}",
+            entry.name
+        );
+    }
+}

@@ -12,7 +12,7 @@ use crate::remedy::{self, RemedyResults};
 use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::staging::Staging;
 use crate::report::table;
-use crate::report::{html, json, svg, ReportInput};
+use crate::report::{json, note, svg, ReportInput};
 use crate::wind::{self, VortexResults};
 
 use super::modes::{modes_table, stage_modal_files};
@@ -316,7 +316,7 @@ pub fn stage_note_files(
     for p in &plots {
         staging.write(p.file, p.svg.as_bytes())?;
     }
-    staging.write("report.html", html::render(&input, &plots, date).as_bytes())?;
+    staging.write("report.html", note::render(&input, &plots, date).as_bytes())?;
     staging.write("summary.json", &json::to_json(&input)?)?;
     Ok(())
 }

@@ -189,6 +189,7 @@ mod tests {
             ("remedy", serde_fields::<RawRemedy>()),
             ("remedy.tmd", serde_fields::<RawTmd>()),
             ("remedy.strakes", serde_fields::<RawStrakes>()),
+            ("project", serde_fields::<RawProject>()),
         ];
         for (section, fields) in nested {
             for key in *fields {

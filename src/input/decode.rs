@@ -77,12 +77,13 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     let criteria = decode_optional_table(table.remove("criteria"), "criteria", &mut issues);
     let model = decode_optional_table(table.remove("model"), "model", &mut issues);
     let remedy = decode_optional_table(table.remove("remedy"), "remedy", &mut issues);
+    let project = decode_optional_table(table.remove("project"), "project", &mut issues);
 
     if !issues.is_empty() {
         return Err(issues);
     }
     match (
-        shell, lining, point_mass, base, stage, wind, vortex, criteria, model, remedy,
+        shell, lining, point_mass, base, stage, wind, vortex, criteria, model, remedy, project,
     ) {
         (
             Some(shell),
@@ -95,6 +96,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
             Some(criteria),
             Some(model),
             Some(remedy),
+            Some(project),
         ) => {
             let stage = match stage {
                 None => None,
@@ -115,6 +117,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
                 criteria: criteria.unwrap_or_default(),
                 model,
                 remedy,
+                project,
             })
         }
         _ => Err(vec![ValidationIssue::key(

@@ -128,7 +128,18 @@ pub fn load_case(path: &Path) -> Result<Case, InputError> {
     let label = path.display().to_string();
     let text = read_case_file(path, &label)?;
     let base_dir = path.parent().unwrap_or_else(|| Path::new(""));
-    parse_case(&text, base_dir, &label)
+    let mut case = parse_case(&text, base_dir, &label)?;
+    // `text` holds exactly the bytes read (UTF-8 is checked, nothing converted), so this is
+    // the file's own SHA-256.
+    let name = path
+        .file_name()
+        .map_or_else(|| label.clone(), |n| n.to_string_lossy().into_owned());
+    case.source = Some(crate::case::CaseSource::of_bytes(
+        &name,
+        text.as_bytes(),
+        false,
+    ));
+    Ok(case)
 }
 
 /// Reads a case file into its TOML table without validating it (sweeps edit the table
@@ -291,8 +302,14 @@ fn parse_table_with(
 pub fn demo_case() -> Case {
     // The embedded text is fixed at compile time and checked by a unit test below, so a
     // failure here is a build defect, not bad user input.
-    parse_case(DEMO_CASE_TOML, Path::new("."), "built-in demo case")
-        .expect("the embedded demo case is valid (checked by tests)")
+    let mut case = parse_case(DEMO_CASE_TOML, Path::new("."), "built-in demo case")
+        .expect("the embedded demo case is valid (checked by tests)");
+    case.source = Some(crate::case::CaseSource::of_bytes(
+        "data/demo.toml",
+        DEMO_CASE_TOML.as_bytes(),
+        true,
+    ));
+    case
 }
 
 enum ReadFailure {
@@ -351,6 +368,12 @@ mod tests {
         let csv = std::fs::read_to_string(dir.join("stations.csv")).expect("read");
         let from_text =
             parse_case_with_csv(&text, "csv_stations.toml", Some(&csv)).expect("text loads");
+        // Same model; only the reader knows which file (and digest) it came from.
+        assert!(from_disk.source.is_some() && from_text.source.is_none());
+        let from_disk = Case {
+            source: None,
+            ..from_disk
+        };
         assert_eq!(from_disk, from_text);
         let err = parse_case_with_csv(&text, "csv_stations.toml", None).unwrap_err();
         assert!(matches!(err, InputError::StationsCsv { .. }), "{err}");

@@ -29,6 +29,7 @@ pub struct RawCase {
     pub criteria: RawCriteria,
     pub model: Option<RawModel>,
     pub remedy: Option<RawRemedy>,
+    pub project: Option<RawProject>,
 }
 
 /// Top-level keys of the case file, in file order.
@@ -44,7 +45,18 @@ pub const CASE_KEYS: &[&str] = &[
     "criteria",
     "model",
     "remedy",
+    "project",
 ];
+
+/// `[project]`: title-block text of the design note.
+#[derive(Debug, Clone, Default, PartialEq, Eq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawProject {
+    pub job: Option<String>,
+    pub revision: Option<String>,
+    pub prepared_by: Option<String>,
+    pub checked_by: Option<String>,
+}
 
 /// `[shell]`.
 #[derive(Debug, Clone, PartialEq, Deserialize)]

@@ -245,9 +245,27 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             criteria,
             model,
             remedy,
+            project: project_text(raw.project.as_ref()),
+            source: None,
         }),
         _ => Err(c.issues),
     }
+}
+
+/// `[project]`: free text, trimmed; an empty value counts as absent.
+fn project_text(raw: Option<&crate::input::raw::RawProject>) -> crate::case::Project {
+    let keep = |v: &Option<String>| {
+        v.as_deref()
+            .map(str::trim)
+            .filter(|t| !t.is_empty())
+            .map(String::from)
+    };
+    raw.map_or_else(Default::default, |p| crate::case::Project {
+        job: keep(&p.job),
+        revision: keep(&p.revision),
+        prepared_by: keep(&p.prepared_by),
+        checked_by: keep(&p.checked_by),
+    })
 }
 
 fn within_shell(c: &mut Checker, path: &str, z_m: f64, height_m: Option<f64>) -> bool {

@@ -3,8 +3,8 @@
 //! module besides `input` that touches files; it only reads result types.
 
 pub mod csv;
-pub mod html;
 pub mod json;
+pub mod note;
 pub mod scale_html;
 pub mod scale_plot;
 pub mod staging;

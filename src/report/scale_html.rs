@@ -2,7 +2,7 @@
 //! user text is escaped; numbers are formatted here so the note needs no knowledge of the
 //! plan's internals.
 
-use super::html::html_escape as escape;
+use super::note::html_escape as escape;
 use crate::similitude::factors::factor_text;
 use crate::similitude::ScalePlan;
 

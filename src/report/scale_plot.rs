@@ -3,7 +3,7 @@
 //! joined in speed order, linear axes from zero with round tick steps, axis titles with
 //! units, every text escaped.
 
-use super::html::html_escape as escape;
+use super::note::html_escape as escape;
 
 const WIDTH: f64 = 640.0;
 const HEIGHT: f64 = 420.0;

@@ -12,7 +12,7 @@
 //! carry a text label (class initial and the smallest speed ratio v_crit / v_m).
 //! Units: the swept keys' own units; speed ratios dimensionless.
 
-pub use super::html::html_escape as escape;
+pub use super::note::html_escape as escape;
 use std::fmt::Write as _;
 
 use super::csv::safe_text;

@@ -12,6 +12,7 @@
 
 pub mod approach1;
 pub mod approach2;
+pub mod constants;
 pub mod fatigue;
 pub mod gb50009;
 pub mod group;

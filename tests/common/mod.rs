@@ -56,6 +56,8 @@ pub fn shell_case(
         criteria: Criteria::default(),
         model: None,
         remedy: None,
+        project: Default::default(),
+        source: None,
     }
 }
 

@@ -57,6 +57,8 @@ pub fn case(wind: Wind, method: VortexMethod, criteria: Criteria) -> Case {
         criteria,
         model: None,
         remedy: None,
+        project: Default::default(),
+        source: None,
     }
 }
 

@@ -1,8 +1,9 @@
 //! Plot 4, response against wind speed: per stage, the EN 1991-1-4 approach 1 tip amplitude
 //! (m) of every mode that is not screened out by E.1.2, for a range of site wind levels
-//! around the mode's critical speed. x = mean wind speed at the case's reference height
-//! (m/s): the site profile is scaled, so x is proportional to the speed at the shedding
-//! section. The design wind and the amplitude limit (if any) are marked.
+//! around the mode's critical speed. x = mean wind speed at the mode's shedding height z_s
+//! (m/s), the same speed as v_m in the note's tables (the site profile is scaled). Each mode's
+//! design mean speed at its z_s is marked, and the axis runs past the largest of them; the
+//! amplitude limit (if any) is marked too.
 //!
 //! References: [`crate::wind::approach1::response_curve`] (EN 1991-1-4 E.1.5.2 with
 //! Table E.3's dependence of c_lat on v_crit / v_m; clause numbers from memory).
@@ -11,21 +12,23 @@ use super::style::{self, Curve, Figure, Guide, LegendEntry, LegendSample, Panel}
 use super::{stage_columns, Plot};
 use crate::report::{ReportError, ReportInput};
 use crate::wind::approach1::{response_curve, Approach1Setup};
-use crate::wind::{profile, ModeShape};
+use crate::wind::ModeShape;
 
 /// Samples per curve.
 const SAMPLES: usize = 121;
 
-/// The response plot.
-pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
+/// The response plot's figure (before rendering): one panel per stage, one curve per mode
+/// that is not screened out, in mode order; each curve's x is the mean speed at the mode's
+/// shedding height and includes the design speed itself as a sample.
+pub fn figure(input: &ReportInput) -> Figure {
     let wind = &input.case.wind;
-    let v_design = wind.reference_speed_m_s;
     let mut panels = Vec::new();
     let mut footnotes = Vec::new();
     let mut n_modes = 0;
     for (s, sv) in input.stages.iter().zip(&input.vortex.stages) {
         let mut curves = Vec::new();
-        let (mut x_lo, mut x_hi, mut y_hi) = (f64::INFINITY, v_design, 0.0f64);
+        let mut guides = Vec::new();
+        let (mut x_lo, mut x_hi, mut y_hi) = (f64::INFINITY, 0.0f64, 0.0f64);
         let top = s.model.z_m.len() - 1;
         for (k, m) in sv.modes.iter().enumerate() {
             n_modes = n_modes.max(k + 1);
@@ -47,17 +50,22 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
                 m.reynolds,
                 a1.c_lat_group_factor,
             );
-            // Mean speed at the shedding section per unit of reference speed.
-            let per_ref = profile::mean_speed_m_s(wind, m.reference_height_m) / v_design;
             let ia = shape.largest_antinode();
             let tip_per_antinode = (mode.displacement[top] / mode.displacement[ia]).abs();
             let v_c = m.critical_speed_m_s;
-            let speeds: Vec<f64> = (0..SAMPLES)
-                .map(|i| v_c * (0.7 + 0.8 * i as f64 / (SAMPLES - 1) as f64))
+            // From below the lock-in range (v_crit / 1.25 = 0.8 v_crit) to past both the end
+            // of the rising branch (v_crit / 0.83 = 1.2 v_crit) and the design speed.
+            let (lo, hi) = (0.7 * v_c, (1.5 * v_c).max(1.15 * m.mean_speed_m_s));
+            let mut speeds: Vec<f64> = (0..SAMPLES)
+                .map(|i| lo + (hi - lo) * i as f64 / (SAMPLES - 1) as f64)
                 .collect();
+            // The design point itself, so the curve passes through the tables' value.
+            speeds.push(m.mean_speed_m_s);
+            speeds.sort_by(f64::total_cmp);
+            // response_curve's speed is the mean speed at the shedding section z_s.
             let pts: Vec<(f64, f64)> = response_curve(&setup, &speeds)
                 .iter()
-                .map(|p| (p.mean_speed_m_s / per_ref, p.y_max_m * tip_per_antinode))
+                .map(|p| (p.mean_speed_m_s, p.y_max_m * tip_per_antinode))
                 .collect();
             for p in &pts {
                 x_lo = x_lo.min(p.0);
@@ -68,6 +76,16 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
                 points: pts,
                 pen: style::pen(k),
             });
+            guides.push(Guide {
+                at: m.mean_speed_m_s,
+                vertical: true,
+                // Short: three panels share the width (the caption names the lines).
+                label: format!("v_m,{} = {:.1}", m.mode, m.mean_speed_m_s),
+                pen: style::Pen {
+                    colour: style::pen(k).colour,
+                    ..style::guide_pen()
+                },
+            });
         }
         if curves.is_empty() {
             footnotes.push(format!(
@@ -75,13 +93,8 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
                 s.stage.name
             ));
             x_lo = 0.0;
+            x_hi = 1.0;
         }
-        let mut guides = vec![Guide {
-            at: v_design,
-            vertical: true,
-            label: format!("design {v_design:.1} m/s"),
-            pen: style::guide_pen(),
-        }];
         let top_d = s.model.outer_diameter_m[top];
         let limit = match (
             input.case.criteria.tip_amplitude_m,
@@ -104,10 +117,10 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
                 },
             });
         }
-        let x_range = style::padded(x_lo.min(v_design), x_hi, 0.03);
+        let x_range = style::padded(x_lo, x_hi, 0.03);
         panels.push(Panel {
             title: s.stage.name.clone(),
-            x_desc: format!("mean wind speed at {:.0} m (m/s)", wind.reference_height_m),
+            x_desc: "mean speed at z_s (m/s)".into(),
             y_desc: "tip amplitude (m)".into(),
             x_range: (x_range.0.max(0.0), x_range.1),
             y_range: (0.0, if y_hi > 0.0 { y_hi * 1.15 } else { 1.0 }),
@@ -122,7 +135,7 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
             sample: LegendSample::Line(style::pen(k)),
         })
         .collect();
-    let fig = Figure {
+    Figure {
         title: "Tip amplitude against wind speed (EN 1991-1-4 approach 1)".into(),
         columns: stage_columns(panels.len()),
         panels,
@@ -130,11 +143,18 @@ pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
         source: input.case.title.clone(),
         legend,
         footnotes,
-    };
+    }
+}
+
+/// The response plot.
+pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
+    let fig = figure(input);
     Ok(Plot {
         file: "response.svg",
-        caption: "Peak across-wind tip amplitude by EN 1991-1-4 approach 1 for scaled site \
-                  winds around each mode's critical speed; modes screened out by E.1.2 at the \
+        caption: "Peak across-wind tip amplitude by EN 1991-1-4 approach 1 against the mean \
+                  wind speed at each mode's shedding height z_s (the v_m of the tables), for \
+                  scaled site winds from below each mode's critical speed to past its design \
+                  speed v_m,i (dashed line per mode i); modes screened out by E.1.2 at the \
                   design wind are not drawn."
             .into(),
         svg: style::render(&fig, "response.svg")?,

@@ -1,0 +1,107 @@
+//! report.html: the self-contained design note. Inline CSS and inline SVG only: no scripts,
+//! no fonts, no links to anything outside the file, so it opens offline and prints on A4
+//! with "page x of y" on every page. The markup is well-formed XML (every element closed,
+//! only numeric character references), so it can be checked with an XML parser.
+//!
+//! Every piece of user-supplied text (title, `[project]` keys, stage names, point-mass
+//! labels, warnings that quote them) goes through [`html_escape`]; the SVGs are escaped by
+//! their backend. One file per part of the note: title block, inputs, method (with the
+//! table of constants not read from the standard), modes, verdicts (every intermediate value
+//! of every method), stage comparison, loads, remedies.
+//!
+//! Headings and layout are our own. Units: SI, with the unit in every column head.
+
+mod comparison;
+mod inputs;
+mod loads;
+mod markup;
+mod method;
+mod modes;
+mod page_style;
+mod remedies;
+mod title_block;
+mod verdicts;
+
+use std::fmt::Write as _;
+
+pub use markup::html_escape;
+
+use super::svg::Plot;
+use super::{ReportInput, CAUTIONS};
+
+/// Renders the design note. `date` is printed as given (ISO date), so tests can fix it.
+pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
+    let plot = |file: &str| plots.iter().position(|p| p.file == file);
+    let mut fig_no = 0;
+    let mut put = |out: &mut String, file: &str| {
+        if let Some(i) = plot(file) {
+            fig_no += 1;
+            markup::figure(out, &plots[i], fig_no);
+        }
+    };
+    let title = html_escape(&input.case.title);
+    let mut o = String::new();
+    let _ = write!(
+        o,
+        "<!DOCTYPE html>\n<html lang=\"en\" xmlns=\"http://www.w3.org/1999/xhtml\">\n<head>\n\
+         <meta charset=\"utf-8\" />\n<title>{title}</title>\n<style>{}</style>\n</head>\n<body>\n",
+        page_style::CSS
+    );
+    title_block::write(&mut o, input.case, date);
+    o.push_str("<h2>1 Scope and cautions</h2>\n<p>This note screens the stack for across-wind vortex-shedding lock-in in the first modes of every construction stage and quantifies the response where lock-in can occur.</p>\n<div class=\"cautions\"><ul>\n");
+    for c in CAUTIONS {
+        let _ = writeln!(o, "<li>{}</li>", html_escape(c));
+    }
+    o.push_str("</ul></div>\n<h2>2 Inputs</h2>\n");
+    inputs::write(&mut o, input);
+    put(&mut o, "shell.svg");
+    o.push_str("<section class=\"major\">\n<h2>3 Method</h2>\n");
+    method::write(&mut o);
+    o.push_str("</section>\n<section class=\"major\">\n<h2>4 Natural modes by stage</h2>\n");
+    modes::write(&mut o, input);
+    put(&mut o, "modes.svg");
+    o.push_str("</section>\n<section class=\"major\">\n<h2>5 Vortex-shedding verdicts</h2>\n");
+    verdicts::write(&mut o, input);
+    put(&mut o, "wind_map.svg");
+    put(&mut o, "response.svg");
+    o.push_str("</section>\n<section class=\"major\">\n<h2>6 Stage comparison</h2>\n");
+    comparison::write(&mut o, input);
+    put(&mut o, "stages.svg");
+    o.push_str("</section>\n<section class=\"major\">\n<h2>7 Loads</h2>\n");
+    loads::write(&mut o, input);
+    put(&mut o, "envelopes.svg");
+    o.push_str("</section>\n");
+    let mut next = 8;
+    if let Some(r) = input.remedies.filter(|r| !r.is_empty()) {
+        let _ = writeln!(o, "<section class=\"major\">\n<h2>{next} Remedies</h2>");
+        remedies::write(&mut o, r);
+        o.push_str("</section>\n");
+        next += 1;
+    }
+    if let Some(fragment) = input.model_plan_html {
+        let _ = writeln!(
+            o,
+            "<section class=\"major\">\n<h2>{next} Aeroelastic model plan</h2>"
+        );
+        o.push_str(fragment);
+        o.push_str("</section>\n");
+        next += 1;
+    }
+    let _ = writeln!(o, "<h2>{next} Warnings</h2>");
+    if input.warnings.is_empty() {
+        o.push_str("<p>None.</p>\n");
+    } else {
+        o.push_str("<ul>\n");
+        for w in input.warnings {
+            let _ = writeln!(o, "<li>{}</li>", html_escape(w));
+        }
+        o.push_str("</ul>\n");
+    }
+    let _ = writeln!(
+        o,
+        "<footer>Screening tool: results must be checked by a licensed engineer against the \
+         local code and the governing standard's National Annex. No warranty. Tables of this \
+         note: modes.csv, vortex.csv, lock_in.csv, loads.csv, summary.json.</footer>\n</body>\n</html>"
+    );
+    o
+}
