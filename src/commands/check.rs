@@ -1,5 +1,6 @@
 //! `check`: the main job. Modal analysis of every stage, vortex-shedding checks of the first
-//! `[vortex] modes` modes, and every output file. Exit code 1 when a criterion is exceeded.
+//! `[vortex] modes` modes, and every output file. Exit code 1 when a criterion is exceeded,
+//! 3 when the case gives no criteria (nothing judged).
 
 use std::path::Path;
 
@@ -231,7 +232,11 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
 /// All warnings of the run, each prefixed with its stage and the modes it concerns; a
 /// message repeated for several modes of a stage is given once.
 pub fn warnings(results: &CheckResults) -> Vec<String> {
-    let mut out = results.remedies.warnings.clone();
+    let mut out = Vec::new();
+    if results.case.criteria.is_empty() {
+        out.push(crate::wind::verdict::NOT_JUDGED_STATEMENT.to_string());
+    }
+    out.extend(results.remedies.warnings.iter().cloned());
     for s in &results.vortex.stages {
         for w in &s.warnings {
             out.push(format!("stage \"{}\": {w}", s.stage));
@@ -400,6 +405,7 @@ pub fn run(
         stdout,
         warnings,
         check_failed: results.vortex.any_exceeds(),
+        not_judged: results.vortex.nothing_judged(),
         files,
     })
 }

@@ -88,6 +88,7 @@ pub fn run(
         stdout: format!("{}\n\n{}", case.title, modes_table(&stages)),
         warnings: Vec::new(),
         check_failed: false,
+        not_judged: false,
         files,
     })
 }

@@ -299,6 +299,7 @@ pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<Comma
         stdout,
         warnings: plan.warnings.clone(),
         check_failed: false,
+        not_judged: false,
         files,
     })
 }

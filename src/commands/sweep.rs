@@ -206,6 +206,7 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
         warnings,
         // A sweep explores; failing variants are its findings, not a failed check.
         check_failed: false,
+        not_judged: false,
         files,
     })
 }

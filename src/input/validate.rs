@@ -601,7 +601,7 @@ fn check_layer(c: &mut Checker, p: &str, l: &RawLining) -> Option<LiningMass> {
 
 fn check_stages(c: &mut Checker, raw: &RawCase, height_m: Option<f64>) -> Vec<Stage> {
     let Some(raw_stages) = &raw.stage else {
-        return default_stages();
+        return default_stages(!raw.lining.is_empty());
     };
     if raw_stages.is_empty() {
         c.key(
@@ -661,22 +661,25 @@ fn check_stages(c: &mut Checker, raw: &RawCase, height_m: Option<f64>) -> Vec<St
     stages
 }
 
-/// The stages used when the case file gives none: the shell alone and the finished stack.
-pub fn default_stages() -> Vec<Stage> {
-    vec![
-        Stage {
-            name: "shell only".into(),
-            lining: false,
-            stiffness_factor: 1.0,
-            top_z_m: None,
-        },
-        Stage {
+/// The stages used when the case file gives none: the shell alone and, when the case has
+/// lining zones, the finished (lined) stack. Without lining the two would be the same
+/// structure, so only the first is made.
+pub fn default_stages(has_lining: bool) -> Vec<Stage> {
+    let mut stages = vec![Stage {
+        name: "shell only".into(),
+        lining: false,
+        stiffness_factor: 1.0,
+        top_z_m: None,
+    }];
+    if has_lining {
+        stages.push(Stage {
             name: "lined".into(),
             lining: true,
             stiffness_factor: 1.0,
             top_z_m: None,
-        },
-    ]
+        });
+    }
+    stages
 }
 
 fn check_wind(c: &mut Checker, w: &RawWind) -> Option<Wind> {
@@ -1041,7 +1044,8 @@ reference_speed_m_s = 25.0
         assert_eq!(case.shell.elastic_modulus_pa, 32.0e9);
         assert_eq!(case.shell.poisson_ratio, 0.2);
         assert_eq!(case.shell.beam, BeamTheory::Timoshenko);
-        assert_eq!(case.stages, default_stages());
+        assert_eq!(case.stages, default_stages(true));
+        assert_eq!(case.stages.len(), 2);
         assert_eq!(case.base, None);
         assert_eq!(case.wind.reference_height_m, 10.0);
         assert_eq!(case.wind.profile, Profile::Power { exponent: 0.16 });
@@ -1054,6 +1058,19 @@ reference_speed_m_s = 25.0
         assert!(case.criteria.is_empty());
         assert_eq!(case.point_masses[0].label, "point mass at 90 m");
         assert_eq!(case.title, "Invented test stack");
+    }
+
+    #[test]
+    fn no_lining_and_no_stages_gives_one_stage() {
+        // Two default stages "shell only" and "lined" would be the same structure.
+        let text = with(
+            "[[lining]]\nfrom_z_m = 5.0\nto_z_m = 100.0\nmass_per_length_kg_m = 3000.0\n",
+            "",
+        );
+        let case = run(&text).expect("valid");
+        assert_eq!(case.stages.len(), 1);
+        assert_eq!(case.stages[0].name, "shell only");
+        assert!(!case.stages[0].lining);
     }
 
     #[test]

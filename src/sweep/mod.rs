@@ -192,8 +192,8 @@ pub enum Class {
     Clear,
     /// Responses within every criterion.
     Ok,
-    /// Responses, no criteria given.
-    Response,
+    /// No criteria given: nothing judged.
+    NotJudged,
     /// Some criterion exceeded.
     Exceeds,
     /// Invalid variant or failed analysis.
@@ -204,7 +204,7 @@ impl Class {
     pub const ALL: [Class; 5] = [
         Class::Invalid,
         Class::Exceeds,
-        Class::Response,
+        Class::NotJudged,
         Class::Ok,
         Class::Clear,
     ];
@@ -213,7 +213,7 @@ impl Class {
         match self {
             Class::Clear => "clear",
             Class::Ok => "ok",
-            Class::Response => "response",
+            Class::NotJudged => "not judged",
             Class::Exceeds => "exceeds",
             Class::Invalid => "invalid",
         }
@@ -235,7 +235,7 @@ pub fn summarise(outcome: &VariantOutcome) -> (Class, Option<f64>) {
                 .map(|r| match r.verdict {
                     Verdict::Clear => Class::Clear,
                     Verdict::Ok => Class::Ok,
-                    Verdict::Response => Class::Response,
+                    Verdict::NotJudged => Class::NotJudged,
                     Verdict::Exceeds(_) => Class::Exceeds,
                 })
                 .max()

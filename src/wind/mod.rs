@@ -264,6 +264,14 @@ impl VortexResults {
         self.stages.iter().any(StageVortex::any_exceeds)
     }
 
+    /// True when no mode was judged (no criteria given; exit code 3).
+    pub fn nothing_judged(&self) -> bool {
+        self.stages
+            .iter()
+            .flat_map(|s| &s.modes)
+            .all(|m| m.verdict.is_not_judged())
+    }
+
     pub fn vortex_rows(&self) -> Vec<VortexRow> {
         self.stages
             .iter()
