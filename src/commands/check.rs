@@ -236,6 +236,7 @@ pub fn warnings(results: &CheckResults) -> Vec<String> {
     if results.case.criteria.is_empty() {
         out.push(crate::wind::verdict::NOT_JUDGED_STATEMENT.to_string());
     }
+    out.extend(results.vortex.warnings.iter().cloned());
     out.extend(results.remedies.warnings.iter().cloned());
     for s in &results.vortex.stages {
         for w in &s.warnings {
