@@ -21,7 +21,9 @@ pub struct Case {
     pub base: Option<BaseSprings>,
     /// At least one stage.
     pub stages: Vec<Stage>,
-    pub wind: Wind,
+    /// Site wind; `None` when the case file has no `[wind]` (modal commands only: the
+    /// commands that run wind checks refuse such a case).
+    pub wind: Option<Wind>,
     pub vortex: Vortex,
     pub criteria: Criteria,
     /// Aeroelastic model planning inputs (`[model]`), if given.

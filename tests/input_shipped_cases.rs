@@ -23,7 +23,7 @@ fn csv_stations_example_loads() {
     assert!(matches!(case.linings[0].mass, LiningMass::Layer { .. }));
     // z_min for z0 = 0.3 m: EN 1991-1-4 Table 4.1, terrain category III.
     assert_eq!(
-        case.wind.profile,
+        case.wind.unwrap().profile,
         Profile::Log {
             roughness_m: 0.3,
             z_min_m: 5.0

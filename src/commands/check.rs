@@ -54,7 +54,7 @@ pub fn analyse(case: Case, options: CheckOptions) -> Result<CheckResults, Error>
         min_elements: options.min_elements,
     };
     let stages = analyse_case(&case, modal)?;
-    let vortex = wind::check_all(&case, &stages);
+    let vortex = wind::check_all(&case, &stages)?;
     let remedies = remedy::compute(&case, &stages, &vortex);
     Ok(CheckResults {
         case,
@@ -350,6 +350,8 @@ pub fn run(
     options: CheckOptions,
 ) -> Result<CommandReport, Error> {
     let case = super::load(case_path)?;
+    // Refused before any work or any output when the case has no [wind].
+    wind::site_wind(&case, "check")?;
     let mut staging = Staging::begin(out)?;
     staging.check_destinations(&CHECK_FILES)?;
     let results = analyse(case, options)?;

@@ -85,28 +85,29 @@ fn speed_rows(plan: &ScalePlan) -> Vec<SpeedCsvRow> {
             model_regime: r.model_regime.label(),
         })
         .collect();
-    let d = &plan.design_speed;
-    rows.push(SpeedCsvRow {
-        stage: "design wind at the top".into(),
-        mode: String::new(),
-        prototype_frequency_hz: None,
-        reference_height_m: d.height_m,
-        prototype_diameter_m: plan
-            .design
-            .model
-            .stations
-            .last()
-            .map(|s| s.outer_diameter_m)
-            .unwrap_or(0.0)
-            * plan.design.factors.length,
-        prototype_speed_m_s: d.prototype_speed_m_s,
-        model_speed_m_s: d.model_speed_m_s,
-        in_tunnel_range: range_cell(d.in_tunnel_range),
-        prototype_reynolds: d.prototype_reynolds,
-        prototype_regime: d.prototype_regime.label(),
-        model_reynolds: d.model_reynolds,
-        model_regime: d.model_regime.label(),
-    });
+    if let Some(d) = &plan.design_speed {
+        rows.push(SpeedCsvRow {
+            stage: "design wind at the top".into(),
+            mode: String::new(),
+            prototype_frequency_hz: None,
+            reference_height_m: d.height_m,
+            prototype_diameter_m: plan
+                .design
+                .model
+                .stations
+                .last()
+                .map(|s| s.outer_diameter_m)
+                .unwrap_or(0.0)
+                * plan.design.factors.length,
+            prototype_speed_m_s: d.prototype_speed_m_s,
+            model_speed_m_s: d.model_speed_m_s,
+            in_tunnel_range: range_cell(d.in_tunnel_range),
+            prototype_reynolds: d.prototype_reynolds,
+            prototype_regime: d.prototype_regime.label(),
+            model_reynolds: d.model_reynolds,
+            model_regime: d.model_regime.label(),
+        });
+    }
     rows
 }
 

@@ -206,7 +206,8 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     });
 
     let stages = check_stages(&mut c, raw, height_m);
-    let wind = check_wind(&mut c, &raw.wind);
+    // `None` = no [wind] in the file; `Some(None)` = a [wind] with problems.
+    let wind = raw.wind.as_ref().map(|w| check_wind(&mut c, w));
     let vortex = check_vortex(&mut c, &raw.vortex);
 
     let criteria = Criteria {
@@ -227,7 +228,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
         .and_then(|r| check_remedy(&mut c, r, &stages, vortex.as_ref(), height_m));
 
     match (shell, wind, vortex) {
-        (Some(shell), Some(wind), Some(vortex)) if c.issues.is_empty() => Ok(Case {
+        (Some(shell), None | Some(Some(_)), Some(vortex)) if c.issues.is_empty() => Ok(Case {
             title: raw
                 .title
                 .as_deref()
@@ -240,7 +241,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             point_masses,
             base,
             stages,
-            wind,
+            wind: wind.flatten(),
             vortex,
             criteria,
             model,
@@ -1047,10 +1048,13 @@ reference_speed_m_s = 25.0
         assert_eq!(case.stages, default_stages(true));
         assert_eq!(case.stages.len(), 2);
         assert_eq!(case.base, None);
-        assert_eq!(case.wind.reference_height_m, 10.0);
-        assert_eq!(case.wind.profile, Profile::Power { exponent: 0.16 });
-        assert_eq!(case.wind.air_density_kg_m3, 1.25);
-        assert_eq!(case.wind.kinematic_viscosity_m2_s, 1.5e-5);
+        assert_eq!(case.wind.unwrap().reference_height_m, 10.0);
+        assert_eq!(
+            case.wind.unwrap().profile,
+            Profile::Power { exponent: 0.16 }
+        );
+        assert_eq!(case.wind.unwrap().air_density_kg_m3, 1.25);
+        assert_eq!(case.wind.unwrap().kinematic_viscosity_m2_s, 1.5e-5);
         assert_eq!(case.vortex.method, VortexMethod::En1991E1);
         assert_eq!(case.vortex.log_decrement, 0.03);
         assert_eq!(case.vortex.modes, 3);
@@ -1379,7 +1383,7 @@ reference_speed_m_s = 25.0
         );
         let case = run(&log("roughness_m = 0.3")).expect("valid");
         assert_eq!(
-            case.wind.profile,
+            case.wind.unwrap().profile,
             Profile::Log {
                 roughness_m: 0.3,
                 z_min_m: 5.0

@@ -211,7 +211,7 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
             let Some(mode) = sm.modes.iter().find(|m| m.number == mv.mode) else {
                 continue;
             };
-            let ctx = ModeContext::new(case, &sm.model, mode, mv);
+            let ctx = ModeContext::new(case, &vortex.wind, &sm.model, mode, mv);
             // Each remedy row compares like with like: the unmitigated result by the same
             // approach that re-checks the remedy.
             let before = checked_outcome(case, &ctx, ctx.governing_en());

@@ -187,7 +187,8 @@ pub struct ScalePlan {
     /// The structural log decrement the model must reproduce (identical to the prototype's).
     pub model_log_decrement: f64,
     pub speeds: Vec<SpeedRow>,
-    pub design_speed: DesignSpeed,
+    /// The design wind at the top; `None` when the case has no `[wind]`.
+    pub design_speed: Option<DesignSpeed>,
     pub consistency: Vec<ConsistencyRow>,
     /// Largest |f_prototype / (f_model k_f) - 1|.
     pub worst_deviation: f64,
@@ -223,7 +224,11 @@ pub fn plan(
     let k = design.factors;
     let spec = design.spec;
     let st = reynolds::strouhal(case);
-    let nu = case.wind.kinematic_viscosity_m2_s;
+    // Without [wind] the Reynolds numbers use the default air of the case reader.
+    let nu = case.wind.as_ref().map_or(
+        crate::input::validate::DEFAULT_KINEMATIC_VISCOSITY_M2_S,
+        |w| w.kinematic_viscosity_m2_s,
+    );
     let mut warnings = design.warnings.clone();
     let mut speeds = Vec::new();
     for s in prototype_modes {
@@ -263,25 +268,30 @@ pub fn plan(
     }
     let top = case.shell.height_m();
     let (b_top, _) = case.shell.geometry_at(top);
-    let v_top = reynolds::mean_speed_m_s(case, top);
-    let v_top_model = v_top / k.velocity;
-    let re_p = reynolds::reynolds(b_top, v_top, nu);
-    let re_m = reynolds::reynolds(b_top / k.length, v_top_model, nu);
-    let design_speed = DesignSpeed {
-        height_m: top,
-        prototype_speed_m_s: v_top,
-        model_speed_m_s: v_top_model,
-        in_tunnel_range: in_range(&spec, v_top_model),
-        prototype_reynolds: re_p,
-        model_reynolds: re_m,
-        prototype_regime: FlowRegime::of(re_p),
-        model_regime: FlowRegime::of(re_m),
-    };
-    if design_speed.in_tunnel_range == Some(false) {
+    // The design wind row needs the case's [wind]; without it the plan has no such row.
+    let design_speed = reynolds::mean_speed_m_s(case, top).map(|v_top| {
+        let v_top_model = v_top / k.velocity;
+        let re_p = reynolds::reynolds(b_top, v_top, nu);
+        let re_m = reynolds::reynolds(b_top / k.length, v_top_model, nu);
+        DesignSpeed {
+            height_m: top,
+            prototype_speed_m_s: v_top,
+            model_speed_m_s: v_top_model,
+            in_tunnel_range: in_range(&spec, v_top_model),
+            prototype_reynolds: re_p,
+            model_reynolds: re_m,
+            prototype_regime: FlowRegime::of(re_p),
+            model_regime: FlowRegime::of(re_m),
+        }
+    });
+    if let Some(d) = design_speed
+        .as_ref()
+        .filter(|d| d.in_tunnel_range == Some(false))
+    {
         warnings.push(format!(
             "tunnel speed {:.2} m/s for the design wind {:.2} m/s at the top is outside the tunnel range {}",
-            v_top_model,
-            v_top,
+            d.model_speed_m_s,
+            d.prototype_speed_m_s,
             range_text(&spec)
         ));
     }

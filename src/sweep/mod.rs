@@ -158,8 +158,17 @@ pub struct Variant {
     pub outcome: VariantOutcome,
 }
 
+/// Why one variant could not be analysed.
+#[derive(Debug, thiserror::Error)]
+pub enum VariantError {
+    #[error(transparent)]
+    Modal(#[from] ModalError),
+    #[error(transparent)]
+    Wind(#[from] wind::WindError),
+}
+
 /// Analyses one valid variant exactly as `check` does (default mesh, `vortex.modes` modes).
-pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
+pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
     let stages = analyse_case(
         case,
         ModalOptions {
@@ -167,7 +176,7 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
             min_elements: None,
         },
     )?;
-    let vortex = wind::check_all(case, &stages);
+    let vortex = wind::check_all(case, &stages)?;
     Ok(vortex
         .stages
         .iter()

@@ -6,7 +6,7 @@
 
 use super::{damping_ratio, gb50009, loads, profile, shape, shedding};
 use super::{Gb50009Result, LoadPoint, ModeShape, StageVortex};
-use crate::case::Case;
+use crate::case::{Case, Wind};
 use crate::modal::{Mode, StageModel};
 
 /// Outer-face taper of a stage, (D_base - D_top) / (2 H): the inclination of the outer face
@@ -40,12 +40,12 @@ pub fn taper_warning(stages: &[StageVortex]) -> Option<String> {
 /// GB 50009 App. H.1 for one mode (see [`gb50009`]).
 pub(super) fn gb_check(
     case: &Case,
+    wind: &Wind,
     model: &StageModel,
     shape: &ModeShape,
     mode: &Mode,
     warnings: &mut Vec<String>,
 ) -> (Gb50009Result, Vec<LoadPoint>) {
-    let wind = &case.wind;
     let h = model.height_m();
     let top = model.z_m.len() - 1;
     let strouhal = case.vortex.strouhal.unwrap_or(gb50009::STROUHAL_GB);

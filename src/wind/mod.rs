@@ -23,8 +23,9 @@ pub mod shedding;
 pub mod verdict;
 
 use serde::Serialize;
+use thiserror::Error;
 
-use crate::case::{Case, VortexMethod};
+use crate::case::{Case, VortexMethod, Wind};
 use crate::modal::{Mode, StageModel, StageModes};
 
 pub use group::GroupRule;
@@ -33,9 +34,30 @@ pub use shape::ModeShape;
 pub use shedding::HeightBand;
 pub use verdict::Verdict;
 
+/// The wind checks cannot run on this case.
+#[derive(Debug, Clone, PartialEq, Eq, Error)]
+pub enum WindError {
+    /// The case file has no `[wind]` section.
+    #[error(
+        "missing section [wind]: `{command}` runs the vortex-shedding checks, which need the \
+         site wind; give at least [wind] reference_speed_m_s (`stackwake modes` runs without it)"
+    )]
+    MissingWind {
+        /// The command that needs it.
+        command: &'static str,
+    },
+}
+
+/// The case's site wind, or the error naming `command`.
+pub fn site_wind<'a>(case: &'a Case, command: &'static str) -> Result<&'a Wind, WindError> {
+    case.wind.as_ref().ok_or(WindError::MissingWind { command })
+}
+
 /// Results of every stage.
 #[derive(Debug, Clone, Serialize)]
 pub struct VortexResults {
+    /// The site wind the checks used (the case's `[wind]`).
+    pub wind: Wind,
     pub stages: Vec<StageVortex>,
     /// Case-level warnings, each given once (e.g. the GB 50009 outer-face taper).
     pub warnings: Vec<String>,
@@ -314,15 +336,23 @@ impl VortexResults {
     }
 }
 
-/// Checks every stage (in the order given).
-pub fn check_all(case: &Case, stages: &[StageModes]) -> VortexResults {
-    let stages: Vec<StageVortex> = stages.iter().map(|s| check_stage(case, s)).collect();
+/// Checks every stage (in the order given). Needs the case's `[wind]`.
+pub fn check_all(case: &Case, stages: &[StageModes]) -> Result<VortexResults, WindError> {
+    let wind = *site_wind(case, "check")?;
+    let stages = stages
+        .iter()
+        .map(|s| check_stage(case, s))
+        .collect::<Result<Vec<StageVortex>, WindError>>()?;
     let warnings = gb_check::taper_warning(&stages).into_iter().collect();
-    VortexResults { stages, warnings }
+    Ok(VortexResults {
+        wind,
+        stages,
+        warnings,
+    })
 }
 
-/// Checks the first `case.vortex.modes` modes of one stage.
-pub fn check_stage(case: &Case, stage_modes: &StageModes) -> StageVortex {
+/// Checks the first `case.vortex.modes` modes of one stage. Needs the case's `[wind]`.
+pub fn check_stage(case: &Case, stage_modes: &StageModes) -> Result<StageVortex, WindError> {
     let mut warnings = Vec::new();
     let wanted = case.vortex.modes;
     if stage_modes.modes.len() < wanted {
@@ -338,12 +368,12 @@ pub fn check_stage(case: &Case, stage_modes: &StageModes) -> StageVortex {
         .iter()
         .take(wanted)
         .map(|m| check_mode(case, &stage_modes.stage.name, &stage_modes.model, m))
-        .collect();
-    StageVortex {
+        .collect::<Result<Vec<ModeVortex>, WindError>>()?;
+    Ok(StageVortex {
         stage: stage_modes.stage.name.clone(),
         modes,
         warnings,
-    }
+    })
 }
 
 /// Critical damping ratio for GB 50009: the case's `vortex.damping_ratio`, or 0.05, the
@@ -355,9 +385,14 @@ pub fn damping_ratio(case: &Case) -> f64 {
         .unwrap_or(gb50009::DAMPING_RATIO_CONCRETE)
 }
 
-/// Checks one mode of one stage.
-pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> ModeVortex {
-    let wind = &case.wind;
+/// Checks one mode of one stage. Needs the case's `[wind]`.
+pub fn check_mode(
+    case: &Case,
+    stage: &str,
+    model: &StageModel,
+    mode: &Mode,
+) -> Result<ModeVortex, WindError> {
+    let wind = site_wind(case, "check")?;
     let vortex = &case.vortex;
     let mut warnings = Vec::new();
     let shape = ModeShape::from_mode(model, mode);
@@ -486,7 +521,7 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
         (Some(a1), Some(a2))
     };
 
-    let (gb, gb_loads) = gb_check::gb_check(case, model, &shape, mode, &mut warnings);
+    let (gb, gb_loads) = gb_check::gb_check(case, wind, model, &shape, mode, &mut warnings);
 
     let comparison = vec![
         MethodSummary {
@@ -558,7 +593,7 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
         &extra,
     );
 
-    ModeVortex {
+    Ok(ModeVortex {
         stage: stage.to_string(),
         mode: mode.number,
         frequency_hz: n,
@@ -583,7 +618,7 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
         loads,
         verdict,
         warnings,
-    }
+    })
 }
 
 fn scale_loads(unit: &[LoadPoint], y: f64) -> Vec<LoadPoint> {

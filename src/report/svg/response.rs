@@ -18,7 +18,7 @@ const SAMPLES: usize = 121;
 
 /// The response plot.
 pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
-    let wind = &input.case.wind;
+    let wind = &input.vortex.wind;
     let v_design = wind.reference_speed_m_s;
     let mut panels = Vec::new();
     let mut footnotes = Vec::new();
