@@ -232,7 +232,12 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
 /// All warnings of the run, each prefixed with its stage and the modes it concerns; a
 /// message repeated for several modes of a stage is given once.
 pub fn warnings(results: &CheckResults) -> Vec<String> {
-    let mut out = Vec::new();
+    // Plausibility first: a unit slip explains whatever follows.
+    let mut out = crate::input::plausibility::case_warnings(&results.case);
+    out.extend(crate::input::plausibility::modal_warnings(
+        &results.case,
+        &results.stages,
+    ));
     if results.case.criteria.is_empty() {
         out.push(crate::wind::verdict::NOT_JUDGED_STATEMENT.to_string());
     }

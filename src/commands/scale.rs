@@ -266,9 +266,21 @@ pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<Comma
     staging.write("scale_plan.json", &json)?;
 
     let mut stdout = plan_text(&plan);
+    let mut warnings = crate::input::plausibility::case_warnings(&case);
+    warnings.extend(plan.warnings.iter().cloned());
     if let Some(rows) = measurements {
         let converted: Vec<PrototypeValues> =
             to_prototype(&rows, &plan.design.factors, case.shell.elastic_modulus_pa);
+        let top = case.shell.height_m();
+        let amplitudes: Vec<(usize, f64)> = converted
+            .iter()
+            .enumerate()
+            .filter_map(|(i, r)| r.prototype_tip_amplitude_m.map(|a| (i + 2, a)))
+            .collect();
+        warnings.extend(crate::input::plausibility::measured_amplitude_warnings(
+            &amplitudes,
+            case.shell.geometry_at(top).0,
+        ));
         staging.write(
             "measured_prototype.csv",
             &to_csv("measured_prototype.csv", &converted)?,
@@ -298,7 +310,7 @@ pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<Comma
     let files = staging.commit()?;
     Ok(CommandReport {
         stdout,
-        warnings: plan.warnings.clone(),
+        warnings,
         check_failed: false,
         not_judged: false,
         files,

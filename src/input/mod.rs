@@ -10,6 +10,7 @@ pub mod decode;
 pub mod issue;
 pub mod keypath;
 pub mod measured_csv;
+pub mod plausibility;
 pub mod raw;
 pub mod stations_csv;
 pub mod validate;

@@ -55,6 +55,9 @@ pub const DEFAULT_MAX_BLOCKAGE: f64 = 0.05;
 pub const MAX_TMD_MASS_RATIO: f64 = 0.3;
 /// Default along-wind force coefficient of a straked section (EN 1991-1-4, from memory).
 pub const DEFAULT_STRAKES_DRAG_COEFFICIENT: f64 = 1.4;
+/// A wall thicker than this (m) beside a diameter in metres is taken for a wall in mm
+/// (RC chimney shells are 0.15-1.0 m, common practice).
+pub const WALL_MM_HINT_M: f64 = 5.0;
 /// Title when the case file gives none.
 pub const DEFAULT_TITLE: &str = "untitled case";
 
@@ -227,6 +230,10 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
         .as_ref()
         .and_then(|r| check_remedy(&mut c, r, &stages, vortex.as_ref(), height_m));
 
+    if let (Some(s), Some(v)) = (&shell, &vortex) {
+        c.issues.extend(super::plausibility::group_errors(s, v));
+    }
+
     match (shell, wind, vortex) {
         (Some(shell), None | Some(Some(_)), Some(vortex)) if c.issues.is_empty() => Ok(Case {
             title: raw
@@ -366,7 +373,6 @@ fn check_stations(c: &mut Checker, rows: &[(Place, RawStation)], csv_name: Optio
         );
     }
     let height_m = rows.last().map(|(_, r)| r.z_m).unwrap_or(0.0);
-    let mut unit_hint_given = false;
     let mut previous_z: Option<f64> = None;
     for (i, (place, st)) in rows.iter().enumerate() {
         let z_path = place.field("z_m");
@@ -403,16 +409,18 @@ fn check_stations(c: &mut Checker, rows: &[(Place, RawStation)], csv_name: Optio
         }
         let d_path = place.field("outer_diameter_m");
         let d_ok = c.positive(&d_path, st.outer_diameter_m);
-        if d_ok && !unit_hint_given {
+        // Every station in mm is named (not only the first): the user fixes all in one pass.
+        let mut d_mm = false;
+        if d_ok {
             if st.outer_diameter_m > 200.0 {
-                unit_hint_given = true;
+                d_mm = true;
                 c.fail(
                     &d_path,
                     st.outer_diameter_m,
                     "over 200 m: are the sizes in mm? give metres",
                 );
             } else if height_m.is_finite() && height_m > 0.0 && st.outer_diameter_m > height_m {
-                unit_hint_given = true;
+                d_mm = true;
                 c.fail(
                     &d_path,
                     st.outer_diameter_m,
@@ -424,7 +432,21 @@ fn check_stations(c: &mut Checker, rows: &[(Place, RawStation)], csv_name: Optio
             }
         }
         let t_path = place.field("wall_m");
-        if c.positive(&t_path, st.wall_m) && d_ok && 2.0 * st.wall_m >= st.outer_diameter_m {
+        let t_ok = c.positive(&t_path, st.wall_m);
+        if t_ok && st.wall_m > WALL_MM_HINT_M && !d_mm {
+            // A wall over 5 m beside a diameter in metres is a wall in mm (RC chimney shells
+            // are 0.15-1.0 m thick, common practice): say so instead of the half-diameter rule.
+            c.fail(
+                &t_path,
+                st.wall_m,
+                format!(
+                    "over {} m: is the wall in mm? give metres ({} mm = {} m)",
+                    num(WALL_MM_HINT_M),
+                    num(st.wall_m),
+                    num(st.wall_m / 1000.0)
+                ),
+            );
+        } else if t_ok && d_ok && 2.0 * st.wall_m >= st.outer_diameter_m {
             c.fail(
                 &t_path,
                 st.wall_m,

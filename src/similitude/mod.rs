@@ -42,6 +42,13 @@ pub enum SimilitudeError {
     /// The command-line length scale is not a positive number.
     #[error("--length-scale = {value}: must be a finite number > 0")]
     BadLengthScale { value: f64 },
+    /// The model would block more than the whole test section.
+    #[error("blockage {percent:.0} %: the model's frontal area at k_l = {length_scale} is larger than the tunnel's test section (model.tunnel_width_m x model.tunnel_height_m); the length scale must be at least {min_length_scale:.1} for model.max_blockage (is the scale or the tunnel size in the wrong unit?)")]
+    BlockageOverFull {
+        percent: f64,
+        length_scale: f64,
+        min_length_scale: f64,
+    },
     /// The model case text could not be produced.
     #[error("cannot write the model case file: {message}")]
     ModelCaseText { message: String },
@@ -108,6 +115,14 @@ pub fn design(case: &Case, length_scale: Option<f64>) -> Result<ScaleDesign, Sim
     let blockage =
         tunnel.map(|(w, h)| Blockage::at_scale(&case.shell, k_l, w, h, spec.max_blockage));
     if let Some(b) = &blockage {
+        // Over 100 % is not a model that could be tested at all: an error, not a warning.
+        if b.blockage_ratio > 1.0 {
+            return Err(SimilitudeError::BlockageOverFull {
+                percent: 100.0 * b.blockage_ratio,
+                length_scale: k_l,
+                min_length_scale: b.min_length_scale,
+            });
+        }
         if b.blockage_ratio > b.max_blockage * (1.0 + 1e-12) {
             warnings.push(format!(
                 "blockage {:.1} % exceeds model.max_blockage = {:.1} % (k_l >= {:.1} needed)",
