@@ -80,7 +80,7 @@ fn rows() -> Vec<Row> {
             vec!["shell.stations[0].outer_diameter_m = 8000: over 200 m: are the sizes in mm? give metres",
                  "shell.stations[1].outer_diameter_m = 6000: over 200 m: are the sizes in mm? give metres"]),
         row("a wall in mm gets a unit hint", "modes", edit("wall_m = 0.25 }", "wall_m = 250.0 }"), 2,
-            vec!["shell.stations[1].wall_m = 250: over 5 m: is the wall in mm? give metres (250 mm = 0.25 m)"]),
+            vec!["shell.stations[1].wall_m = 250: more than half the outer diameter (6 m); is the wall in mm? give metres (250 mm = 0.25 m)"]),
         row("no criteria: not judged, exit 3", "check", BASE.split("[criteria]").next().unwrap().to_string(), 3,
             vec!["warning: no [criteria] given: no verdict is judged (every verdict says \"not judged\"; exit code 3)"]),
     ]

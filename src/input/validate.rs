@@ -55,9 +55,9 @@ pub const DEFAULT_MAX_BLOCKAGE: f64 = 0.05;
 pub const MAX_TMD_MASS_RATIO: f64 = 0.3;
 /// Default along-wind force coefficient of a straked section (EN 1991-1-4, from memory).
 pub const DEFAULT_STRAKES_DRAG_COEFFICIENT: f64 = 1.4;
-/// A wall thicker than this (m) beside a diameter in metres is taken for a wall in mm
-/// (RC chimney shells are 0.15-1.0 m, common practice).
-pub const WALL_MM_HINT_M: f64 = 5.0;
+/// A wall of more than half the diameter whose value lies in this range reads as mm (50 mm
+/// to 2 m: RC chimney shells are 0.15-1.0 m, common practice), so it gets a unit hint.
+pub const WALL_MM_HINT_M: (f64, f64) = (50.0, 2000.0);
 /// Title when the case file gives none.
 pub const DEFAULT_TITLE: &str = "untitled case";
 
@@ -433,15 +433,22 @@ fn check_stations(c: &mut Checker, rows: &[(Place, RawStation)], csv_name: Optio
         }
         let t_path = place.field("wall_m");
         let t_ok = c.positive(&t_path, st.wall_m);
-        if t_ok && st.wall_m > WALL_MM_HINT_M && !d_mm {
-            // A wall over 5 m beside a diameter in metres is a wall in mm (RC chimney shells
-            // are 0.15-1.0 m thick, common practice): say so instead of the half-diameter rule.
+        if t_ok
+            && d_ok
+            && !d_mm
+            && 2.0 * st.wall_m >= st.outer_diameter_m
+            && (WALL_MM_HINT_M.0..=WALL_MM_HINT_M.1).contains(&st.wall_m)
+        {
+            // A wall beside a diameter in metres that reads as 50-2000 mm is a wall in mm (RC
+            // chimney shells are 0.15-1.0 m thick, common practice): say so instead of the
+            // half-diameter rule.
             c.fail(
                 &t_path,
                 st.wall_m,
                 format!(
-                    "over {} m: is the wall in mm? give metres ({} mm = {} m)",
-                    num(WALL_MM_HINT_M),
+                    "more than half the outer diameter ({} m); is the wall in mm? give metres \
+                     ({} mm = {} m)",
+                    num(st.outer_diameter_m),
                     num(st.wall_m),
                     num(st.wall_m / 1000.0)
                 ),

@@ -12,6 +12,7 @@
 
 pub mod approach1;
 pub mod approach2;
+mod error;
 pub mod fatigue;
 pub mod gb50009;
 mod gb_check;
@@ -23,35 +24,16 @@ pub mod shedding;
 pub mod verdict;
 
 use serde::Serialize;
-use thiserror::Error;
 
 use crate::case::{Case, VortexMethod, Wind};
 use crate::modal::{Mode, StageModel, StageModes};
 
+pub use error::{site_wind, WindError};
 pub use group::GroupRule;
 pub use loads::LoadPoint;
 pub use shape::ModeShape;
 pub use shedding::HeightBand;
 pub use verdict::Verdict;
-
-/// The wind checks cannot run on this case.
-#[derive(Debug, Clone, PartialEq, Eq, Error)]
-pub enum WindError {
-    /// The case file has no `[wind]` section.
-    #[error(
-        "missing section [wind]: `{command}` runs the vortex-shedding checks, which need the \
-         site wind; give at least [wind] reference_speed_m_s (`stackwake modes` runs without it)"
-    )]
-    MissingWind {
-        /// The command that needs it.
-        command: &'static str,
-    },
-}
-
-/// The case's site wind, or the error naming `command`.
-pub fn site_wind<'a>(case: &'a Case, command: &'static str) -> Result<&'a Wind, WindError> {
-    case.wind.as_ref().ok_or(WindError::MissingWind { command })
-}
 
 /// Results of every stage.
 #[derive(Debug, Clone, Serialize)]
