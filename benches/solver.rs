@@ -51,13 +51,13 @@ fn case() -> Case {
             stiffness_factor: 1.0,
             top_z_m: None,
         }],
-        wind: Wind {
+        wind: Some(Wind {
             reference_speed_m_s: 30.0,
             reference_height_m: 10.0,
             profile: Profile::Power { exponent: 0.16 },
             air_density_kg_m3: 1.25,
             kinematic_viscosity_m2_s: 1.5e-5,
-        },
+        }),
         vortex: Vortex {
             method: VortexMethod::En1991E1,
             strouhal: None,

@@ -63,7 +63,7 @@ fn main() {
     });
     let sm = stage_modes(&stage, &beam, &sol);
     let t_wind = time(runs, || {
-        std::hint::black_box(wind::check_stage(&case, &sm));
+        std::hint::black_box(wind::check_stage(&case, &sm).unwrap());
     });
     let t_input = time(runs, || {
         let mut t = table.clone();

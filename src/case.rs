@@ -21,7 +21,9 @@ pub struct Case {
     pub base: Option<BaseSprings>,
     /// At least one stage.
     pub stages: Vec<Stage>,
-    pub wind: Wind,
+    /// Site wind; `None` when the case file has no `[wind]` (modal commands only: the
+    /// commands that run wind checks refuse such a case).
+    pub wind: Option<Wind>,
     pub vortex: Vortex,
     pub criteria: Criteria,
     /// Aeroelastic model planning inputs (`[model]`), if given.
@@ -285,7 +287,8 @@ pub struct Vortex {
     pub strouhal: Option<f64>,
     /// Structural logarithmic decrement delta_s (used in the Scruton number).
     pub log_decrement: f64,
-    /// Critical damping ratio for GB 50009 App. H; `None` = log_decrement / (2 pi).
+    /// Critical damping ratio for GB 50009 App. H; `None` = 0.05, GB 50009-2012 H.1.1's
+    /// first-mode value for concrete structures.
     pub damping_ratio: Option<f64>,
     /// How many modes to check (>= 1).
     pub modes: usize,

@@ -13,6 +13,9 @@ pub enum Error {
     /// The modal analysis of a stage failed (non-convergence or failed completeness check).
     #[error(transparent)]
     Modal(#[from] crate::modal::ModalError),
+    /// The wind checks cannot run (no `[wind]` in the case).
+    #[error(transparent)]
+    Wind(#[from] crate::wind::WindError),
     /// A wind-tunnel model plan could not be made (`scale`).
     #[error(transparent)]
     Similitude(#[from] crate::similitude::SimilitudeError),

@@ -1,6 +1,7 @@
 //! The `stackwake` binary: parses arguments, calls the library's commands, prints, and maps
-//! the outcome to an exit code: 0 all checks pass, 1 the analysis ran and a check fails,
-//! 2 error (bad input, unwritable output, solver refusal).
+//! the outcome to an exit code: 0 every judged check passes, 1 the analysis ran and a check
+//! fails, 2 error (bad input, unwritable output, solver refusal), 3 the analysis ran but
+//! nothing was judged (no `[criteria]` given).
 
 use std::path::PathBuf;
 use std::process::ExitCode;
@@ -12,7 +13,7 @@ use stackwake::modal::ModalOptions;
 /// Vortex-shedding lock-in screening of tall reinforced-concrete chimneys (screening tool:
 /// results must be checked by a licensed engineer against the local code and National Annex).
 #[derive(Debug, Parser)]
-#[command(name = "stackwake", version, about)]
+#[command(name = "stackwake", version, about, after_long_help = EXIT_CODES)]
 struct Cli {
     #[command(subcommand)]
     command: Command,
@@ -92,6 +93,14 @@ enum Command {
         shell: clap_complete::Shell,
     },
 }
+
+/// The exit codes, shown by `--help`.
+const EXIT_CODES: &str = "Exit codes:
+  0  the analysis ran and every judged check passes
+  1  the analysis ran and some check fails (a criterion is exceeded)
+  2  error: bad input, unwritable output, solver refusal
+  3  the analysis ran but nothing was judged (the case gives no [criteria]; `check` only)
+`sweep` exits 0 when the grid ran (its verdicts are in sweep.csv).";
 
 /// Largest `--elements` accepted.
 const MAX_ELEMENTS: usize = 20_000;
@@ -216,7 +225,13 @@ fn main() -> ExitCode {
                     println!("wrote {} files to {}", report.files.len(), dir.display());
                 }
             }
-            ExitCode::from(if report.check_failed { 1 } else { 0 })
+            ExitCode::from(if report.check_failed {
+                1
+            } else if report.not_judged {
+                3
+            } else {
+                0
+            })
         }
         Err(e) => {
             eprintln!("error: {}", error_text(&e));

@@ -1,5 +1,6 @@
-//! The `check` command through the binary: contract columns of vortex.csv, exit codes 0
-//! (no criteria: only clear / response) and 1 (a criterion set below the computed response).
+//! The `check` command through the binary: contract columns of vortex.csv, exit codes 3
+//! (no criteria: every verdict "not judged") and 1 (a criterion set below the computed
+//! response).
 
 use assert_cmd::Command;
 use predicates::prelude::*;
@@ -21,7 +22,7 @@ fn example(extra: &str) -> (tempfile::TempDir, std::path::PathBuf) {
 }
 
 #[test]
-fn no_criteria_exits_0_with_contract_columns() {
+fn no_criteria_exits_3_with_contract_columns() {
     let (dir, case) = example("");
     let out = dir.path().join("out");
     Command::cargo_bin("stackwake")
@@ -31,14 +32,15 @@ fn no_criteria_exits_0_with_contract_columns() {
         .arg("--out")
         .arg(&out)
         .assert()
-        .code(0);
+        .code(3)
+        .stderr(predicate::str::contains("no [criteria] given: no verdict is judged").count(1));
     let vortex = std::fs::read_to_string(out.join("vortex.csv")).unwrap();
     assert_eq!(vortex.lines().next().unwrap(), VORTEX_HEADER);
-    // Two default stages x three modes.
-    assert_eq!(vortex.lines().count(), 1 + 2 * 3);
+    // No lining and no [[stage]]: one default stage x three modes.
+    assert_eq!(vortex.lines().count(), 1 + 3);
     for line in vortex.lines().skip(1) {
         let verdict = line.rsplit(',').next().unwrap();
-        assert!(verdict == "clear" || verdict == "response", "{line}");
+        assert_eq!(verdict, "not judged", "{line}");
     }
     let loads = std::fs::read_to_string(out.join("loads.csv")).unwrap();
     assert_eq!(
@@ -94,7 +96,47 @@ fn model_table_adds_the_model_plan_to_the_note() {
         .arg("--out")
         .arg(&out)
         .assert()
-        .code(predicate::in_iter([0, 1]));
+        .code(predicate::in_iter([0, 1, 3]));
     let html = std::fs::read_to_string(out.join("report.html")).unwrap();
     assert!(html.contains("Aeroelastic model plan"));
+}
+
+#[test]
+fn no_criteria_statement_is_in_the_note_and_summary_and_exit_3_is_documented() {
+    let (dir, case) = example("");
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .args([
+            "check",
+            case.to_str().unwrap(),
+            "--out",
+            out.to_str().unwrap(),
+        ])
+        .assert()
+        .code(3);
+    let json: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(out.join("summary.json")).unwrap()).unwrap();
+    let warnings = json["warnings"].as_array().unwrap();
+    assert_eq!(
+        warnings
+            .iter()
+            .filter(|w| w.as_str().unwrap().starts_with("no [criteria] given"))
+            .count(),
+        1
+    );
+    let html = std::fs::read_to_string(out.join("report.html")).unwrap();
+    assert!(html.contains("no [criteria] given: no verdict is judged"));
+    // README and --help document exit code 3 beside 0, 1 and 2.
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("--help")
+        .assert()
+        .code(0)
+        .stdout(predicate::str::contains(
+            "3  the analysis ran but nothing was judged",
+        ));
+    let readme =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/README.md")).unwrap();
+    assert!(readme.contains("`3` the analysis ran but nothing was judged"));
 }

@@ -148,13 +148,12 @@ fn rows() -> Vec<Row> {
             "shell.stations[0].outer_diameter_m = 12000: over 200 m: are the sizes in mm? give metres"),
         // Empty and broken files.
         row("empty file", "",
-            "{dir}/case.toml is empty: a case file needs at least [shell] and [wind] (see the built-in demo case)"),
+            "{dir}/case.toml is empty: a case file needs at least [shell] ([wind] too for `check` and `sweep`; see the built-in demo case)"),
         row("comments only", "# nothing\n\n",
-            "{dir}/case.toml is empty: a case file needs at least [shell] and [wind] (see the built-in demo case)"),
+            "{dir}/case.toml is empty: a case file needs at least [shell] ([wind] too for `check` and `sweep`; see the built-in demo case)"),
         row("not UTF-8", b"title = \"caf\xe9\"\n".to_vec(),
             "{dir}/case.toml is not UTF-8 text (save it as UTF-8 from your editor or spreadsheet)"),
-        row("missing wind section", BASE.split("[wind]").next().unwrap_or_default(),
-            "wind: missing section [wind]: the vortex-shedding check needs the site wind; give at least reference_speed_m_s"),
+        // A case without [wind] is valid for `modes` (tests/cli_modes_without_wind.rs).
         // Stations CSV from a spreadsheet.
         // (A `;` file reads decimal commas; in a tab file the comma may mark thousands.)
         csv_row("CSV comma decimals in a tab file", "z_m\touter_diameter_m\twall_m\n0\t12\t0.4\n50\t10\t0,3\n100\t8\t0.2\n",

@@ -209,7 +209,7 @@ fn required_log_decrement_is_the_smallest_that_passes() {
         },
     )
     .unwrap();
-    let vortex = stackwake::wind::check_all(&case, &stages);
+    let vortex = stackwake::wind::check_all(&case, &stages).unwrap();
     let remedies = stackwake::remedy::compute(&case, &stages, &vortex);
     for r in &base {
         let m = vortex

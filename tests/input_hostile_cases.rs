@@ -119,8 +119,6 @@ fn hostile_inputs_are_refused_with_exact_messages() {
          "hostile.toml is empty"),
         ("TOML syntax error", edit("density_kg_m3 = 2500.0", "density_kg_m3 = = 2500.0"),
          "hostile.toml, line 4, column 17: TOML syntax error"),
-        ("missing wind", BASE.split("[wind]").next().unwrap_or_default().to_string(),
-         "wind: missing section [wind]: the vortex-shedding check needs the site wind"),
         ("misspelt stations", edit("stations = [", "station = ["),
          "shell.station: unknown key; did you mean stations?"),
         ("missing stations", BASE.replacen(&BASE[BASE.find("stations = [").unwrap_or(0)..BASE.find("]\n[[lining]]").map(|i| i + 2).unwrap_or(0)], "", 1),

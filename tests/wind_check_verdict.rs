@@ -25,7 +25,7 @@ fn screening_criteria_and_rows() {
         stress_pa: None,
     };
     let mut case = common::case(common::uniform_wind(30.0), VortexMethod::En1991E1, crit);
-    let res = wind::check_all(&case, &[worked_stage()]);
+    let res = wind::check_all(&case, &[worked_stage()]).unwrap();
     let s = &res.stages[0];
     // 3 modes requested, 2 available
     assert_eq!(s.modes.len(), 2);
@@ -61,9 +61,11 @@ fn screening_criteria_and_rows() {
     // Looser limit -> ok; approach 2 governing gives its own (smaller) amplitude.
     let mut case_ok = case.clone();
     case_ok.criteria.tip_amplitude_m = Some(0.06);
-    assert!(!wind::check_all(&case_ok, &[worked_stage()]).any_exceeds());
+    assert!(!wind::check_all(&case_ok, &[worked_stage()])
+        .unwrap()
+        .any_exceeds());
     case.vortex.method = VortexMethod::En1991E2;
-    let r2 = wind::check_stage(&case, &worked_stage());
+    let r2 = wind::check_stage(&case, &worked_stage()).unwrap();
     let a2 = r2.modes[0].approach2.as_ref().unwrap();
     assert_eq!(r2.modes[0].row().tip_amplitude_m, Some(a2.tip_amplitude_m));
     assert_eq!(r2.modes[0].verdict.to_string(), "ok");
@@ -103,7 +105,7 @@ fn lock_in_band_on_a_tapered_stack() {
         VortexMethod::En1991E1,
         Criteria::default(),
     );
-    let r = wind::check_mode(&case, "s", &model, &mode);
+    let r = wind::check_mode(&case, "s", &model, &mode).unwrap();
     let band = r.lock_in_band.unwrap();
     assert!((band.from_z_m - 140.0 / 3.0).abs() < 1e-9);
     assert_eq!(band.to_z_m, 100.0);

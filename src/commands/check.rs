@@ -1,5 +1,6 @@
 //! `check`: the main job. Modal analysis of every stage, vortex-shedding checks of the first
-//! `[vortex] modes` modes, and every output file. Exit code 1 when a criterion is exceeded.
+//! `[vortex] modes` modes, and every output file. Exit code 1 when a criterion is exceeded,
+//! 3 when the case gives no criteria (nothing judged).
 
 use std::path::Path;
 
@@ -53,7 +54,7 @@ pub fn analyse(case: Case, options: CheckOptions) -> Result<CheckResults, Error>
         min_elements: options.min_elements,
     };
     let stages = analyse_case(&case, modal)?;
-    let vortex = wind::check_all(&case, &stages);
+    let vortex = wind::check_all(&case, &stages)?;
     let remedies = remedy::compute(&case, &stages, &vortex);
     Ok(CheckResults {
         case,
@@ -231,7 +232,17 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
 /// All warnings of the run, each prefixed with its stage and the modes it concerns; a
 /// message repeated for several modes of a stage is given once.
 pub fn warnings(results: &CheckResults) -> Vec<String> {
-    let mut out = results.remedies.warnings.clone();
+    // Plausibility first: a unit slip explains whatever follows.
+    let mut out = crate::input::plausibility::case_warnings(&results.case);
+    out.extend(crate::input::plausibility::modal_warnings(
+        &results.case,
+        &results.stages,
+    ));
+    if results.case.criteria.is_empty() {
+        out.push(crate::wind::verdict::NOT_JUDGED_STATEMENT.to_string());
+    }
+    out.extend(results.vortex.warnings.iter().cloned());
+    out.extend(results.remedies.warnings.iter().cloned());
     out.extend(crate::report::station_table::station_count_warning(
         &results.case.shell.stations,
     ));
@@ -347,6 +358,8 @@ pub fn run(
     options: CheckOptions,
 ) -> Result<CommandReport, Error> {
     let case = super::load(case_path)?;
+    // Refused before any work or any output when the case has no [wind].
+    wind::site_wind(&case, "check")?;
     let mut staging = Staging::begin(out)?;
     staging.check_destinations(&CHECK_FILES)?;
     let results = analyse(case, options)?;
@@ -403,6 +416,7 @@ pub fn run(
         stdout,
         warnings,
         check_failed: results.vortex.any_exceeds(),
+        not_judged: results.vortex.nothing_judged(),
         files,
     })
 }

@@ -22,6 +22,9 @@ pub struct CommandReport {
     pub warnings: Vec<String>,
     /// True when the analysis ran and some check failed (exit code 1).
     pub check_failed: bool,
+    /// True when the analysis ran but nothing was judged: no criterion given (exit code 3
+    /// unless a check failed).
+    pub not_judged: bool,
     /// Files written.
     pub files: Vec<PathBuf>,
 }

@@ -86,8 +86,12 @@ pub fn run(
     let files = staging.commit()?;
     Ok(CommandReport {
         stdout: format!("{}\n\n{}", case.title, modes_table(&stages)),
-        warnings: Vec::new(),
+        warnings: crate::input::plausibility::case_warnings(&case)
+            .into_iter()
+            .chain(crate::input::plausibility::modal_warnings(&case, &stages))
+            .collect(),
         check_failed: false,
+        not_judged: false,
         files,
     })
 }

@@ -65,6 +65,7 @@ pub fn run(path: &Path, force: bool) -> Result<CommandReport, Error> {
         ),
         warnings: Vec::new(),
         check_failed: false,
+        not_judged: false,
         files: Vec::new(),
     })
 }

@@ -86,28 +86,29 @@ fn speed_rows(plan: &ScalePlan) -> Vec<SpeedCsvRow> {
             model_regime: r.model_regime.label(),
         })
         .collect();
-    let d = &plan.design_speed;
-    rows.push(SpeedCsvRow {
-        stage: "design wind at the top".into(),
-        mode: String::new(),
-        prototype_frequency_hz: None,
-        reference_height_m: d.height_m,
-        prototype_diameter_m: plan
-            .design
-            .model
-            .stations
-            .last()
-            .map(|s| s.outer_diameter_m)
-            .unwrap_or(0.0)
-            * plan.design.factors.length,
-        prototype_speed_m_s: d.prototype_speed_m_s,
-        model_speed_m_s: d.model_speed_m_s,
-        in_tunnel_range: range_cell(d.in_tunnel_range),
-        prototype_reynolds: d.prototype_reynolds,
-        prototype_regime: d.prototype_regime.label(),
-        model_reynolds: d.model_reynolds,
-        model_regime: d.model_regime.label(),
-    });
+    if let Some(d) = &plan.design_speed {
+        rows.push(SpeedCsvRow {
+            stage: "design wind at the top".into(),
+            mode: String::new(),
+            prototype_frequency_hz: None,
+            reference_height_m: d.height_m,
+            prototype_diameter_m: plan
+                .design
+                .model
+                .stations
+                .last()
+                .map(|s| s.outer_diameter_m)
+                .unwrap_or(0.0)
+                * plan.design.factors.length,
+            prototype_speed_m_s: d.prototype_speed_m_s,
+            model_speed_m_s: d.model_speed_m_s,
+            in_tunnel_range: range_cell(d.in_tunnel_range),
+            prototype_reynolds: d.prototype_reynolds,
+            prototype_regime: d.prototype_regime.label(),
+            model_reynolds: d.model_reynolds,
+            model_regime: d.model_regime.label(),
+        });
+    }
     rows
 }
 
@@ -266,9 +267,21 @@ pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<Comma
     staging.write("scale_plan.json", &json)?;
 
     let mut stdout = plan_text(&plan);
+    let mut warnings = crate::input::plausibility::case_warnings(&case);
+    warnings.extend(plan.warnings.iter().cloned());
     if let Some(rows) = measurements {
         let converted: Vec<PrototypeValues> =
             to_prototype(&rows, &plan.design.factors, case.shell.elastic_modulus_pa);
+        let top = case.shell.height_m();
+        let amplitudes: Vec<(usize, f64)> = converted
+            .iter()
+            .enumerate()
+            .filter_map(|(i, r)| r.prototype_tip_amplitude_m.map(|a| (i + 2, a)))
+            .collect();
+        warnings.extend(crate::input::plausibility::measured_amplitude_warnings(
+            &amplitudes,
+            case.shell.geometry_at(top).0,
+        ));
         staging.write(
             "measured_prototype.csv",
             &to_csv("measured_prototype.csv", &converted)?,
@@ -298,8 +311,9 @@ pub fn run(case_path: &Path, out: &Path, options: &ScaleOptions) -> Result<Comma
     let files = staging.commit()?;
     Ok(CommandReport {
         stdout,
-        warnings: plan.warnings.clone(),
+        warnings,
         check_failed: false,
+        not_judged: false,
         files,
     })
 }

@@ -178,6 +178,11 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
     let base_dir = case_path.parent().unwrap_or_else(|| Path::new(""));
     // Fail on a bad key before creating the output folder or doing any work.
     check_keys(&table, &vary)?;
+    // Every variant is checked like `check`, wind checks included: a case without [wind]
+    // is refused once here rather than once per variant.
+    if !table.contains_key("wind") {
+        return Err(crate::wind::WindError::MissingWind { command: "sweep" }.into());
+    }
     let mut staging = Staging::begin(out)?;
 
     let n = sweep::grid_size(&vary).unwrap_or(0) as u64;
@@ -249,6 +254,7 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
         warnings,
         // A sweep explores; failing variants are its findings, not a failed check.
         check_failed: false,
+        not_judged: false,
         files,
     })
 }

@@ -62,17 +62,9 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     let stage = table
         .remove("stage")
         .map(|v| decode_array(v, "stage", &mut issues));
-    let wind = match table.remove("wind") {
-        Some(v) => decode_value(v, "wind", &mut issues),
-        None => {
-            issues.push(ValidationIssue::key(
-                "wind",
-                "missing section [wind]: the vortex-shedding check needs the site wind; give at \
-                 least reference_speed_m_s",
-            ));
-            None
-        }
-    };
+    // [wind] is optional here: only the commands that run wind checks need it, and they
+    // say so (`modes` and `scale` run without it).
+    let wind = decode_optional_table(table.remove("wind"), "wind", &mut issues);
     let vortex = decode_optional_table(table.remove("vortex"), "vortex", &mut issues);
     let criteria = decode_optional_table(table.remove("criteria"), "criteria", &mut issues);
     let model = decode_optional_table(table.remove("model"), "model", &mut issues);
@@ -511,9 +503,8 @@ reference_speed_m_s = 25.0
     #[test]
     fn missing_sections_and_keys() {
         let errs = decode("title = \"x\"\n").unwrap_err();
-        assert_eq!(errs.len(), 2);
+        assert_eq!(errs.len(), 1);
         assert!(errs[0].starts_with("shell: missing section [shell]"));
-        assert!(errs[1].starts_with("wind: missing section [wind]"));
         let text = MINIMAL.replace("reference_speed_m_s = 25.0", "");
         let errs = decode(&text).unwrap_err();
         assert_eq!(

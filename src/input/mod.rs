@@ -10,6 +10,7 @@ pub mod decode;
 pub mod issue;
 pub mod keypath;
 pub mod measured_csv;
+pub mod plausibility;
 pub mod raw;
 pub mod stations_csv;
 pub mod validate;
@@ -53,7 +54,7 @@ pub enum InputError {
         size: MegaBytes,
     },
     /// The case file holds no settings at all.
-    #[error("{label} is empty: a case file needs at least [shell] and [wind] (see the built-in demo case)")]
+    #[error("{label} is empty: a case file needs at least [shell] ([wind] too for `check` and `sweep`; see the built-in demo case)")]
     Empty { label: String },
     /// Not valid TOML.
     #[error("{label}, line {line}, column {column}: TOML syntax error: {message}")]

@@ -22,7 +22,8 @@ pub struct RawCase {
     pub base: Option<RawBase>,
     /// `None` = the default stages; `Some(vec![])` (an explicit empty array) is an error.
     pub stage: Option<Vec<RawStage>>,
-    pub wind: RawWind,
+    /// `None`: no `[wind]` (enough for `modes` and `scale`; the wind checks refuse it).
+    pub wind: Option<RawWind>,
     #[serde(default)]
     pub vortex: RawVortex,
     #[serde(default)]

@@ -55,6 +55,9 @@ pub const DEFAULT_MAX_BLOCKAGE: f64 = 0.05;
 pub const MAX_TMD_MASS_RATIO: f64 = 0.3;
 /// Default along-wind force coefficient of a straked section (EN 1991-1-4, from memory).
 pub const DEFAULT_STRAKES_DRAG_COEFFICIENT: f64 = 1.4;
+/// A wall of more than half the diameter whose value lies in this range reads as mm (50 mm
+/// to 2 m: RC chimney shells are 0.15-1.0 m, common practice), so it gets a unit hint.
+pub const WALL_MM_HINT_M: (f64, f64) = (50.0, 2000.0);
 /// Title when the case file gives none.
 pub const DEFAULT_TITLE: &str = "untitled case";
 
@@ -206,7 +209,8 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     });
 
     let stages = check_stages(&mut c, raw, height_m);
-    let wind = check_wind(&mut c, &raw.wind);
+    // `None` = no [wind] in the file; `Some(None)` = a [wind] with problems.
+    let wind = raw.wind.as_ref().map(|w| check_wind(&mut c, w));
     let vortex = check_vortex(&mut c, &raw.vortex);
 
     let criteria = Criteria {
@@ -226,8 +230,12 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
         .as_ref()
         .and_then(|r| check_remedy(&mut c, r, &stages, vortex.as_ref(), height_m));
 
+    if let (Some(s), Some(v)) = (&shell, &vortex) {
+        c.issues.extend(super::plausibility::group_errors(s, v));
+    }
+
     match (shell, wind, vortex) {
-        (Some(shell), Some(wind), Some(vortex)) if c.issues.is_empty() => Ok(Case {
+        (Some(shell), None | Some(Some(_)), Some(vortex)) if c.issues.is_empty() => Ok(Case {
             title: raw
                 .title
                 .as_deref()
@@ -240,7 +248,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             point_masses,
             base,
             stages,
-            wind,
+            wind: wind.flatten(),
             vortex,
             criteria,
             model,
@@ -383,7 +391,6 @@ fn check_stations(c: &mut Checker, rows: &[(Place, RawStation)], csv_name: Optio
         );
     }
     let height_m = rows.last().map(|(_, r)| r.z_m).unwrap_or(0.0);
-    let mut unit_hint_given = false;
     let mut previous_z: Option<f64> = None;
     for (i, (place, st)) in rows.iter().enumerate() {
         let z_path = place.field("z_m");
@@ -420,16 +427,18 @@ fn check_stations(c: &mut Checker, rows: &[(Place, RawStation)], csv_name: Optio
         }
         let d_path = place.field("outer_diameter_m");
         let d_ok = c.positive(&d_path, st.outer_diameter_m);
-        if d_ok && !unit_hint_given {
+        // Every station in mm is named (not only the first): the user fixes all in one pass.
+        let mut d_mm = false;
+        if d_ok {
             if st.outer_diameter_m > 200.0 {
-                unit_hint_given = true;
+                d_mm = true;
                 c.fail(
                     &d_path,
                     st.outer_diameter_m,
                     "over 200 m: are the sizes in mm? give metres",
                 );
             } else if height_m.is_finite() && height_m > 0.0 && st.outer_diameter_m > height_m {
-                unit_hint_given = true;
+                d_mm = true;
                 c.fail(
                     &d_path,
                     st.outer_diameter_m,
@@ -441,7 +450,28 @@ fn check_stations(c: &mut Checker, rows: &[(Place, RawStation)], csv_name: Optio
             }
         }
         let t_path = place.field("wall_m");
-        if c.positive(&t_path, st.wall_m) && d_ok && 2.0 * st.wall_m >= st.outer_diameter_m {
+        let t_ok = c.positive(&t_path, st.wall_m);
+        if t_ok
+            && d_ok
+            && !d_mm
+            && 2.0 * st.wall_m >= st.outer_diameter_m
+            && (WALL_MM_HINT_M.0..=WALL_MM_HINT_M.1).contains(&st.wall_m)
+        {
+            // A wall beside a diameter in metres that reads as 50-2000 mm is a wall in mm (RC
+            // chimney shells are 0.15-1.0 m thick, common practice): say so instead of the
+            // half-diameter rule.
+            c.fail(
+                &t_path,
+                st.wall_m,
+                format!(
+                    "more than half the outer diameter ({} m); is the wall in mm? give metres \
+                     ({} mm = {} m)",
+                    num(st.outer_diameter_m),
+                    num(st.wall_m),
+                    num(st.wall_m / 1000.0)
+                ),
+            );
+        } else if t_ok && d_ok && 2.0 * st.wall_m >= st.outer_diameter_m {
             c.fail(
                 &t_path,
                 st.wall_m,
@@ -619,7 +649,7 @@ fn check_layer(c: &mut Checker, p: &str, l: &RawLining) -> Option<LiningMass> {
 
 fn check_stages(c: &mut Checker, raw: &RawCase, height_m: Option<f64>) -> Vec<Stage> {
     let Some(raw_stages) = &raw.stage else {
-        return default_stages();
+        return default_stages(!raw.lining.is_empty());
     };
     if raw_stages.is_empty() {
         c.key(
@@ -679,22 +709,25 @@ fn check_stages(c: &mut Checker, raw: &RawCase, height_m: Option<f64>) -> Vec<St
     stages
 }
 
-/// The stages used when the case file gives none: the shell alone and the finished stack.
-pub fn default_stages() -> Vec<Stage> {
-    vec![
-        Stage {
-            name: "shell only".into(),
-            lining: false,
-            stiffness_factor: 1.0,
-            top_z_m: None,
-        },
-        Stage {
+/// The stages used when the case file gives none: the shell alone and, when the case has
+/// lining zones, the finished (lined) stack. Without lining the two would be the same
+/// structure, so only the first is made.
+pub fn default_stages(has_lining: bool) -> Vec<Stage> {
+    let mut stages = vec![Stage {
+        name: "shell only".into(),
+        lining: false,
+        stiffness_factor: 1.0,
+        top_z_m: None,
+    }];
+    if has_lining {
+        stages.push(Stage {
             name: "lined".into(),
             lining: true,
             stiffness_factor: 1.0,
             top_z_m: None,
-        },
-    ]
+        });
+    }
+    stages
 }
 
 fn check_wind(c: &mut Checker, w: &RawWind) -> Option<Wind> {
@@ -1059,12 +1092,16 @@ reference_speed_m_s = 25.0
         assert_eq!(case.shell.elastic_modulus_pa, 32.0e9);
         assert_eq!(case.shell.poisson_ratio, 0.2);
         assert_eq!(case.shell.beam, BeamTheory::Timoshenko);
-        assert_eq!(case.stages, default_stages());
+        assert_eq!(case.stages, default_stages(true));
+        assert_eq!(case.stages.len(), 2);
         assert_eq!(case.base, None);
-        assert_eq!(case.wind.reference_height_m, 10.0);
-        assert_eq!(case.wind.profile, Profile::Power { exponent: 0.16 });
-        assert_eq!(case.wind.air_density_kg_m3, 1.25);
-        assert_eq!(case.wind.kinematic_viscosity_m2_s, 1.5e-5);
+        assert_eq!(case.wind.unwrap().reference_height_m, 10.0);
+        assert_eq!(
+            case.wind.unwrap().profile,
+            Profile::Power { exponent: 0.16 }
+        );
+        assert_eq!(case.wind.unwrap().air_density_kg_m3, 1.25);
+        assert_eq!(case.wind.unwrap().kinematic_viscosity_m2_s, 1.5e-5);
         assert_eq!(case.vortex.method, VortexMethod::En1991E1);
         assert_eq!(case.vortex.log_decrement, 0.03);
         assert_eq!(case.vortex.modes, 3);
@@ -1072,6 +1109,19 @@ reference_speed_m_s = 25.0
         assert!(case.criteria.is_empty());
         assert_eq!(case.point_masses[0].label, "point mass at 90 m");
         assert_eq!(case.title, "Invented test stack");
+    }
+
+    #[test]
+    fn no_lining_and_no_stages_gives_one_stage() {
+        // Two default stages "shell only" and "lined" would be the same structure.
+        let text = with(
+            "[[lining]]\nfrom_z_m = 5.0\nto_z_m = 100.0\nmass_per_length_kg_m = 3000.0\n",
+            "",
+        );
+        let case = run(&text).expect("valid");
+        assert_eq!(case.stages.len(), 1);
+        assert_eq!(case.stages[0].name, "shell only");
+        assert!(!case.stages[0].lining);
     }
 
     #[test]
@@ -1380,7 +1430,7 @@ reference_speed_m_s = 25.0
         );
         let case = run(&log("roughness_m = 0.3")).expect("valid");
         assert_eq!(
-            case.wind.profile,
+            case.wind.unwrap().profile,
             Profile::Log {
                 roughness_m: 0.3,
                 z_min_m: 5.0

@@ -22,21 +22,24 @@ use serde::Serialize;
 
 use crate::case::{Case, TmdMass, VortexMethod};
 use crate::modal::StageModes;
-use crate::wind::{ModeVortex, Verdict, VortexResults};
+use crate::wind::{Verdict, VortexResults};
 
 use recheck::ModeContext;
 pub use required::Required;
 
-/// A mode's response and verdict (before or after a remedy).
+/// A mode's response and verdict (before or after a remedy), all by one method.
 #[derive(Debug, Clone, Serialize)]
 pub struct Outcome {
+    /// The EN 1991-1-4 Annex E approach that gives `tip_amplitude_m`, `max_stress_pa` and
+    /// `verdict`.
+    pub method: VortexMethod,
     /// Structural log decrement used (with any added damping).
     pub log_decrement: f64,
     pub scruton: f64,
     /// Approach 1 / 2 tip amplitudes, m (`None` = not computed).
     pub approach1_tip_amplitude_m: Option<f64>,
     pub approach2_tip_amplitude_m: Option<f64>,
-    /// Governing tip amplitude and largest stress, m and Pa.
+    /// Tip amplitude and largest stress by `method`, m and Pa.
     pub tip_amplitude_m: Option<f64>,
     pub max_stress_pa: Option<f64>,
     pub verdict: Verdict,
@@ -47,7 +50,10 @@ pub struct Outcome {
 pub struct RequiredDamping {
     pub stage: String,
     pub mode: usize,
-    pub before: Outcome,
+    /// The unmitigated result by approach 1 (the "before" of the approach 1 row).
+    pub approach1_before: Outcome,
+    /// The unmitigated result by approach 2 (the "before" of the approach 2 row).
+    pub approach2_before: Outcome,
     pub approach1: Required,
     pub approach2: Required,
 }
@@ -130,8 +136,9 @@ pub struct RemedyRow {
 }
 
 fn outcome_of(ctx: &ModeContext, delta: f64, y1: Option<f64>, y2: Option<f64>) -> Outcome {
-    let y = match ctx.governing_en() {
-        VortexMethod::En1991E2 => y2.or(y1),
+    let method = ctx.governing_en();
+    let y = match method {
+        VortexMethod::En1991E2 => y2,
         _ => y1,
     };
     let (tip, stress, verdict) = match y {
@@ -142,6 +149,7 @@ fn outcome_of(ctx: &ModeContext, delta: f64, y1: Option<f64>, y2: Option<f64>) -
         None => (None, None, ctx.checked.verdict.clone()),
     };
     Outcome {
+        method,
         log_decrement: delta,
         scruton: ctx.scruton(delta),
         approach1_tip_amplitude_m: y1.map(|y| y * ctx.tip_per_antinode),
@@ -152,17 +160,39 @@ fn outcome_of(ctx: &ModeContext, delta: f64, y1: Option<f64>, y2: Option<f64>) -
     }
 }
 
-/// The check's own result for a mode, as an [`Outcome`].
-fn checked_outcome(case: &Case, m: &ModeVortex) -> Outcome {
-    let g = m.governing_summary();
+/// The check's own (unmitigated) result for a mode by one EN approach, as an [`Outcome`]:
+/// tip, stress and verdict all from `method`, whichever method governs the check. A
+/// screened-out mode keeps the check's verdict.
+fn checked_outcome(case: &Case, ctx: &ModeContext, method: VortexMethod) -> Outcome {
+    let m = ctx.checked;
+    let y = match method {
+        VortexMethod::En1991E2 => m.approach2.as_ref().map(|a| a.y_max_m),
+        _ => m.approach1.as_ref().map(|a| a.y_max_m),
+    };
+    let (tip, stress, verdict) = match y {
+        Some(y) => {
+            let r = ctx.effects(y);
+            (r.tip_amplitude_m, r.max_stress_pa, ctx.judge(y))
+        }
+        None => (None, None, m.verdict.clone()),
+    };
     Outcome {
+        method,
         log_decrement: case.vortex.log_decrement,
         scruton: m.scruton,
         approach1_tip_amplitude_m: m.approach1.as_ref().map(|a| a.tip_amplitude_m),
         approach2_tip_amplitude_m: m.approach2.as_ref().map(|a| a.tip_amplitude_m),
-        tip_amplitude_m: g.tip_amplitude_m,
-        max_stress_pa: g.max_stress_pa,
-        verdict: m.verdict.clone(),
+        tip_amplitude_m: tip,
+        max_stress_pa: stress,
+        verdict,
+    }
+}
+
+/// The label of an EN approach in remedy rows.
+fn approach_name(method: VortexMethod) -> &'static str {
+    match method {
+        VortexMethod::En1991E2 => "approach 2",
+        _ => "approach 1",
     }
 }
 
@@ -181,14 +211,17 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
             let Some(mode) = sm.modes.iter().find(|m| m.number == mv.mode) else {
                 continue;
             };
-            let ctx = ModeContext::new(case, &sm.model, mode, mv);
-            let before = checked_outcome(case, mv);
+            let ctx = ModeContext::new(case, &vortex.wind, &sm.model, mode, mv);
+            // Each remedy row compares like with like: the unmitigated result by the same
+            // approach that re-checks the remedy.
+            let before = checked_outcome(case, &ctx, ctx.governing_en());
 
             if mv.verdict.is_exceeds() && !mv.screened_out {
                 out.required_damping.push(RequiredDamping {
                     stage: sv.stage.clone(),
                     mode: mv.mode,
-                    before: before.clone(),
+                    approach1_before: checked_outcome(case, &ctx, VortexMethod::En1991E1),
+                    approach2_before: checked_outcome(case, &ctx, VortexMethod::En1991E2),
                     approach1: required::required(&ctx, |d| ctx.approach1_y_m(d, |_| 1.0)),
                     approach2: required::required(&ctx, |d| ctx.approach2_y_m(d)),
                 });
@@ -225,17 +258,20 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
                     let w = strakes::coverage(&ctx.shape, z_a, l, from, to);
                     let met = mv.scruton > strakes::MIN_SCRUTON_FOR_STRAKES;
                     let mut after = outcome_of(&ctx, delta_s, Some(y1), None);
-                    // Approach 2 has no c_lat: the straked response is approach 1 whatever governs.
+                    // Approach 2 has no c_lat: the straked response (and so its "before") is
+                    // approach 1 whatever governs.
+                    after.method = VortexMethod::En1991E1;
                     let r = ctx.effects(y1);
                     after.tip_amplitude_m = r.tip_amplitude_m;
                     after.max_stress_pa = r.max_stress_pa;
                     after.verdict = ctx.judge(y1);
                     if !met {
+                        let unmitigated = checked_outcome(case, &ctx, VortexMethod::En1991E1);
                         out.warnings.push(format!(
                             "stage \"{}\" mode {}: Sc = {:.1} <= 8: EN 1991-1-4 does not credit strakes (from memory); the straked response is shown but the verdict stays unmitigated",
                             sv.stage, mv.mode, mv.scruton
                         ));
-                        after.verdict = mv.verdict.clone();
+                        after.verdict = unmitigated.verdict;
                     }
                     out.strakes.push(StrakesResult {
                         stage: sv.stage.clone(),
@@ -247,7 +283,7 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
                         effective_c_lat_factor: strakes::effective_factor(w, s.c_lat_factor),
                         en_condition_met: met,
                         drag_coefficient: s.drag_coefficient,
-                        before: before.clone(),
+                        before: checked_outcome(case, &ctx, VortexMethod::En1991E1),
                         after,
                     });
                 }
@@ -335,11 +371,14 @@ impl RemedyResults {
     pub fn rows(&self) -> Vec<RemedyRow> {
         let mut rows = Vec::new();
         for r in &self.required_damping {
-            for (name, q) in [("approach 1", &r.approach1), ("approach 2", &r.approach2)] {
+            for (name, q, before) in [
+                ("approach 1", &r.approach1, &r.approach1_before),
+                ("approach 2", &r.approach2, &r.approach2_before),
+            ] {
                 let note = if q.already_meets {
                     format!(
                         "{name} already meets the criteria at delta_s = {}",
-                        r.before.log_decrement
+                        before.log_decrement
                     )
                 } else if q.log_decrement.is_none() {
                     format!(
@@ -356,15 +395,11 @@ impl RemedyResults {
                     remedy: format!("required damping ({name})"),
                     log_decrement: q.log_decrement,
                     scruton: q.scruton,
-                    tip_amplitude_before_m: if name == "approach 1" {
-                        r.before.approach1_tip_amplitude_m
-                    } else {
-                        r.before.approach2_tip_amplitude_m
-                    },
+                    tip_amplitude_before_m: before.tip_amplitude_m,
                     tip_amplitude_after_m: after_tip,
-                    max_stress_before_pa: r.before.max_stress_pa,
+                    max_stress_before_pa: before.max_stress_pa,
                     max_stress_after_pa: q.max_stress_pa,
-                    verdict_before: r.before.verdict.to_string(),
+                    verdict_before: before.verdict.to_string(),
                     verdict_after: if q.already_meets {
                         "ok".into()
                     } else if q.log_decrement.is_some() {
@@ -380,7 +415,13 @@ impl RemedyResults {
             rows.push(RemedyRow {
                 stage: t.stage.clone(),
                 mode: t.mode,
-                remedy: format!("TMD mu = {:.4} ({:.0} kg at z = {:.1} m)", t.mass_ratio, t.mass_kg, t.location_z_m),
+                remedy: format!(
+                    "TMD mu = {:.4} ({:.0} kg at z = {:.1} m; {})",
+                    t.mass_ratio,
+                    t.mass_kg,
+                    t.location_z_m,
+                    approach_name(t.before.method)
+                ),
                 log_decrement: Some(t.after.log_decrement),
                 scruton: Some(t.after.scruton),
                 tip_amplitude_before_m: t.before.tip_amplitude_m,
@@ -404,7 +445,13 @@ impl RemedyResults {
             rows.push(RemedyRow {
                 stage: s.stage.clone(),
                 mode: s.mode,
-                remedy: format!("strakes {:.1}-{:.1} m, c_lat x {} (user input)", s.from_z_m, s.to_z_m, s.c_lat_factor),
+                remedy: format!(
+                    "strakes {:.1}-{:.1} m, c_lat x {} (user input; {})",
+                    s.from_z_m,
+                    s.to_z_m,
+                    s.c_lat_factor,
+                    approach_name(s.before.method)
+                ),
                 log_decrement: Some(s.after.log_decrement),
                 scruton: Some(s.after.scruton),
                 tip_amplitude_before_m: s.before.tip_amplitude_m,

@@ -6,7 +6,7 @@
 //! in `wind::approach1`), approach 2 from its closed form. Load effects scale with the antinode
 //! amplitude. Units: SI.
 
-use crate::case::{Case, VortexMethod};
+use crate::case::{Case, VortexMethod, Wind};
 use crate::modal::{Mode, StageModel};
 use crate::wind::approach1::{self, Approach1Params};
 use crate::wind::verdict::{self, Response, Verdict};
@@ -15,6 +15,8 @@ use crate::wind::{approach2, loads, profile, ModeShape, ModeVortex};
 /// The mode as the check saw it, with what a remedy needs to re-solve it.
 pub struct ModeContext<'a> {
     pub case: &'a Case,
+    /// The site wind the check used.
+    pub wind: &'a Wind,
     pub model: &'a StageModel,
     pub mode: &'a Mode,
     pub checked: &'a ModeVortex,
@@ -28,6 +30,7 @@ pub struct ModeContext<'a> {
 impl<'a> ModeContext<'a> {
     pub fn new(
         case: &'a Case,
+        wind: &'a Wind,
         model: &'a StageModel,
         mode: &'a Mode,
         checked: &'a ModeVortex,
@@ -39,6 +42,7 @@ impl<'a> ModeContext<'a> {
         let unit = loads::inertia_loads(model, &shape, mode.frequency_hz, 1.0 / phi_a);
         ModeContext {
             case,
+            wind,
             model,
             mode,
             checked,
@@ -66,7 +70,7 @@ impl<'a> ModeContext<'a> {
             scruton: self.scruton(delta),
             k: approach1::k_mode_shape(&self.shape),
         };
-        let wind = &self.case.wind;
+        let wind = self.wind;
         let ratio_at = |l: f64| {
             let (a, b) = approach1::correlation_interval(&self.shape, z_a, l);
             let v = profile::mean_speed_m_s(wind, 0.5 * (a + b));
@@ -92,7 +96,7 @@ impl<'a> ModeContext<'a> {
             strouhal: c.strouhal,
             scruton: self.scruton(delta),
             equivalent_mass_kg_m: c.equivalent_mass_kg_m,
-            air_density_kg_m3: self.case.wind.air_density_kg_m3,
+            air_density_kg_m3: self.wind.air_density_kg_m3,
             height_m: self.model.height_m(),
             reynolds: c.reynolds,
         })

@@ -139,20 +139,21 @@ pub fn render_html(plan: &ScalePlan) -> String {
             ]
         })
         .collect();
-    let ds = &plan.design_speed;
-    rows.push(vec![
-        format!("design wind at {:.1} m", ds.height_m),
-        "-".into(),
-        format!("{:.2}", ds.prototype_speed_m_s),
-        format!("{:.3}", ds.model_speed_m_s),
-        yes_no(ds.in_tunnel_range),
-        format!(
-            "{:.3e} ({})",
-            ds.prototype_reynolds,
-            ds.prototype_regime.label()
-        ),
-        format!("{:.3e} ({})", ds.model_reynolds, ds.model_regime.label()),
-    ]);
+    if let Some(ds) = &plan.design_speed {
+        rows.push(vec![
+            format!("design wind at {:.1} m", ds.height_m),
+            "-".into(),
+            format!("{:.2}", ds.prototype_speed_m_s),
+            format!("{:.3}", ds.model_speed_m_s),
+            yes_no(ds.in_tunnel_range),
+            format!(
+                "{:.3e} ({})",
+                ds.prototype_reynolds,
+                ds.prototype_regime.label()
+            ),
+            format!("{:.3e} ({})", ds.model_reynolds, ds.model_regime.label()),
+        ]);
+    }
     s.push_str(&table(
         &[
             "stage",

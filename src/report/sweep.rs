@@ -92,7 +92,7 @@ fn fill(class: Class) -> &'static str {
     match class {
         Class::Clear => "#ffffff",
         Class::Ok => "#d9d9d9",
-        Class::Response => "#a6a6a6",
+        Class::NotJudged => "#a6a6a6",
         Class::Exceeds => "url(#hatch)",
         Class::Invalid => "url(#cross)",
     }

@@ -42,6 +42,13 @@ pub enum SimilitudeError {
     /// The command-line length scale is not a positive number.
     #[error("--length-scale = {value}: must be a finite number > 0")]
     BadLengthScale { value: f64 },
+    /// The model would block more than the whole test section.
+    #[error("blockage {percent:.0} %: the model's frontal area at k_l = {length_scale} is larger than the tunnel's test section (model.tunnel_width_m x model.tunnel_height_m); the length scale must be at least {min_length_scale:.1} for model.max_blockage (is the scale or the tunnel size in the wrong unit?)")]
+    BlockageOverFull {
+        percent: f64,
+        length_scale: f64,
+        min_length_scale: f64,
+    },
     /// The model case text could not be produced.
     #[error("cannot write the model case file: {message}")]
     ModelCaseText { message: String },
@@ -108,6 +115,14 @@ pub fn design(case: &Case, length_scale: Option<f64>) -> Result<ScaleDesign, Sim
     let blockage =
         tunnel.map(|(w, h)| Blockage::at_scale(&case.shell, k_l, w, h, spec.max_blockage));
     if let Some(b) = &blockage {
+        // Over 100 % is not a model that could be tested at all: an error, not a warning.
+        if b.blockage_ratio > 1.0 {
+            return Err(SimilitudeError::BlockageOverFull {
+                percent: 100.0 * b.blockage_ratio,
+                length_scale: k_l,
+                min_length_scale: b.min_length_scale,
+            });
+        }
         if b.blockage_ratio > b.max_blockage * (1.0 + 1e-12) {
             warnings.push(format!(
                 "blockage {:.1} % exceeds model.max_blockage = {:.1} % (k_l >= {:.1} needed)",
@@ -187,7 +202,8 @@ pub struct ScalePlan {
     /// The structural log decrement the model must reproduce (identical to the prototype's).
     pub model_log_decrement: f64,
     pub speeds: Vec<SpeedRow>,
-    pub design_speed: DesignSpeed,
+    /// The design wind at the top; `None` when the case has no `[wind]`.
+    pub design_speed: Option<DesignSpeed>,
     pub consistency: Vec<ConsistencyRow>,
     /// Largest |f_prototype / (f_model k_f) - 1|.
     pub worst_deviation: f64,
@@ -223,7 +239,11 @@ pub fn plan(
     let k = design.factors;
     let spec = design.spec;
     let st = reynolds::strouhal(case);
-    let nu = case.wind.kinematic_viscosity_m2_s;
+    // Without [wind] the Reynolds numbers use the default air of the case reader.
+    let nu = case.wind.as_ref().map_or(
+        crate::input::validate::DEFAULT_KINEMATIC_VISCOSITY_M2_S,
+        |w| w.kinematic_viscosity_m2_s,
+    );
     let mut warnings = design.warnings.clone();
     let mut speeds = Vec::new();
     for s in prototype_modes {
@@ -263,25 +283,30 @@ pub fn plan(
     }
     let top = case.shell.height_m();
     let (b_top, _) = case.shell.geometry_at(top);
-    let v_top = reynolds::mean_speed_m_s(case, top);
-    let v_top_model = v_top / k.velocity;
-    let re_p = reynolds::reynolds(b_top, v_top, nu);
-    let re_m = reynolds::reynolds(b_top / k.length, v_top_model, nu);
-    let design_speed = DesignSpeed {
-        height_m: top,
-        prototype_speed_m_s: v_top,
-        model_speed_m_s: v_top_model,
-        in_tunnel_range: in_range(&spec, v_top_model),
-        prototype_reynolds: re_p,
-        model_reynolds: re_m,
-        prototype_regime: FlowRegime::of(re_p),
-        model_regime: FlowRegime::of(re_m),
-    };
-    if design_speed.in_tunnel_range == Some(false) {
+    // The design wind row needs the case's [wind]; without it the plan has no such row.
+    let design_speed = reynolds::mean_speed_m_s(case, top).map(|v_top| {
+        let v_top_model = v_top / k.velocity;
+        let re_p = reynolds::reynolds(b_top, v_top, nu);
+        let re_m = reynolds::reynolds(b_top / k.length, v_top_model, nu);
+        DesignSpeed {
+            height_m: top,
+            prototype_speed_m_s: v_top,
+            model_speed_m_s: v_top_model,
+            in_tunnel_range: in_range(&spec, v_top_model),
+            prototype_reynolds: re_p,
+            model_reynolds: re_m,
+            prototype_regime: FlowRegime::of(re_p),
+            model_regime: FlowRegime::of(re_m),
+        }
+    });
+    if let Some(d) = design_speed
+        .as_ref()
+        .filter(|d| d.in_tunnel_range == Some(false))
+    {
         warnings.push(format!(
             "tunnel speed {:.2} m/s for the design wind {:.2} m/s at the top is outside the tunnel range {}",
-            v_top_model,
-            v_top,
+            d.model_speed_m_s,
+            d.prototype_speed_m_s,
             range_text(&spec)
         ));
     }

@@ -60,7 +60,8 @@ struct File {
     #[serde(skip_serializing_if = "Option::is_none")]
     base: Option<FileBase>,
     stage: Vec<FileStage>,
-    wind: FileWind,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    wind: Option<FileWind>,
     vortex: FileVortex,
     #[serde(skip_serializing_if = "Option::is_none")]
     criteria: Option<FileCriteria>,
@@ -300,29 +301,31 @@ pub fn model_case(
         })
         .collect();
 
-    let w = &prototype.wind;
-    let (profile, exponent, roughness_m, z_min_m) = match w.profile {
-        Profile::Power { exponent } => ("power", Some(exponent), None, None),
-        Profile::Log {
+    // A prototype without [wind] gives a model case without it (modal check only).
+    let wind = prototype.wind.as_ref().map(|w| {
+        let (profile, exponent, roughness_m, z_min_m) = match w.profile {
+            Profile::Power { exponent } => ("power", Some(exponent), None, None),
+            Profile::Log {
+                roughness_m,
+                z_min_m,
+            } => (
+                "log",
+                None,
+                Some(r(roughness_m / k.length)),
+                Some(r(z_min_m / k.length)),
+            ),
+        };
+        FileWind {
+            reference_speed_m_s: r(w.reference_speed_m_s / k.velocity),
+            reference_height_m: r(w.reference_height_m / k.length),
+            profile,
+            exponent,
             roughness_m,
             z_min_m,
-        } => (
-            "log",
-            None,
-            Some(r(roughness_m / k.length)),
-            Some(r(z_min_m / k.length)),
-        ),
-    };
-    let wind = FileWind {
-        reference_speed_m_s: r(w.reference_speed_m_s / k.velocity),
-        reference_height_m: r(w.reference_height_m / k.length),
-        profile,
-        exponent,
-        roughness_m,
-        z_min_m,
-        air_density_kg_m3: w.air_density_kg_m3,
-        kinematic_viscosity_m2_s: w.kinematic_viscosity_m2_s,
-    };
+            air_density_kg_m3: w.air_density_kg_m3,
+            kinematic_viscosity_m2_s: w.kinematic_viscosity_m2_s,
+        }
+    });
     let v = &prototype.vortex;
     let vortex = FileVortex {
         method: v.method.key(),

@@ -85,9 +85,10 @@ impl FlowRegime {
 /// Mean wind speed at height `z_m` of the case's profile, m/s: the power law
 /// v_ref (z / z_ref)^alpha, or the EN 1991-1-4 4.3 log law scaled to v_ref at z_ref,
 /// v_ref ln(max(z, z_min) / z0) / ln(max(z_ref, z_min) / z0).
-pub fn mean_speed_m_s(case: &Case, z_m: f64) -> f64 {
-    let w = &case.wind;
-    match w.profile {
+/// `None` when the case has no `[wind]`.
+pub fn mean_speed_m_s(case: &Case, z_m: f64) -> Option<f64> {
+    let w = case.wind.as_ref()?;
+    Some(match w.profile {
         Profile::Power { exponent } => {
             w.reference_speed_m_s * (z_m / w.reference_height_m).powf(exponent)
         }
@@ -98,7 +99,7 @@ pub fn mean_speed_m_s(case: &Case, z_m: f64) -> f64 {
             w.reference_speed_m_s * (z_m.max(z_min_m) / roughness_m).ln()
                 / (w.reference_height_m.max(z_min_m) / roughness_m).ln()
         }
-    }
+    })
 }
 
 /// The cautions that go with every Reynolds comparison (common practice).

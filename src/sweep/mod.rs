@@ -11,7 +11,7 @@ use std::fmt;
 use serde::Serialize;
 use thiserror::Error;
 
-use crate::case::{Case, VortexMethod};
+use crate::case::{Case, VortexMethod, Wind};
 use crate::modal::{analyse_case, ModalError, ModalOptions, StageModes};
 use crate::remedy::recheck::ModeContext;
 use crate::remedy::required;
@@ -170,8 +170,17 @@ pub struct Variant {
     pub outcome: VariantOutcome,
 }
 
+/// Why one variant could not be analysed.
+#[derive(Debug, thiserror::Error)]
+pub enum VariantError {
+    #[error(transparent)]
+    Modal(#[from] ModalError),
+    #[error(transparent)]
+    Wind(#[from] wind::WindError),
+}
+
 /// Analyses one valid variant exactly as `check` does (default mesh, `vortex.modes` modes).
-pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
+pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
     let stages = analyse_case(
         case,
         ModalOptions {
@@ -179,7 +188,8 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
             min_elements: None,
         },
     )?;
-    let vortex = wind::check_all(case, &stages);
+    let vortex = wind::check_all(case, &stages)?;
+    let wind = &vortex.wind;
     Ok(vortex
         .stages
         .iter()
@@ -196,7 +206,7 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
                     scruton: m.scruton,
                     tip_amplitude_m: g.tip_amplitude_m,
                     max_stress_pa: g.max_stress_pa,
-                    required_log_decrement: required_log_decrement(case, sm, m),
+                    required_log_decrement: required_log_decrement(case, wind, sm, m),
                     verdict: m.verdict.clone(),
                 }
             })
@@ -206,12 +216,17 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, ModalError> {
 
 /// The structural log decrement a failing mode needs (see
 /// [`ModeRow::required_log_decrement`]); the same search as `check`'s remedy table.
-fn required_log_decrement(case: &Case, sm: &StageModes, m: &ModeVortex) -> Option<f64> {
+fn required_log_decrement(
+    case: &Case,
+    wind: &Wind,
+    sm: &StageModes,
+    m: &ModeVortex,
+) -> Option<f64> {
     if !m.verdict.is_exceeds() || m.screened_out {
         return None;
     }
     let mode = sm.modes.iter().find(|x| x.number == m.mode)?;
-    let ctx = ModeContext::new(case, &sm.model, mode, m);
+    let ctx = ModeContext::new(case, wind, &sm.model, mode, m);
     let req = match ctx.governing_en() {
         VortexMethod::En1991E2 => required::required(&ctx, |d| ctx.approach2_y_m(d)),
         _ => required::required(&ctx, |d| ctx.approach1_y_m(d, |_| 1.0)),
@@ -230,8 +245,8 @@ pub enum Class {
     Clear,
     /// Responses within every criterion.
     Ok,
-    /// Responses, no criteria given.
-    Response,
+    /// No criteria given: nothing judged.
+    NotJudged,
     /// Some criterion exceeded.
     Exceeds,
     /// Invalid variant or failed analysis.
@@ -242,7 +257,7 @@ impl Class {
     pub const ALL: [Class; 5] = [
         Class::Invalid,
         Class::Exceeds,
-        Class::Response,
+        Class::NotJudged,
         Class::Ok,
         Class::Clear,
     ];
@@ -251,7 +266,7 @@ impl Class {
         match self {
             Class::Clear => "clear",
             Class::Ok => "ok",
-            Class::Response => "response",
+            Class::NotJudged => "not judged",
             Class::Exceeds => "exceeds",
             Class::Invalid => "invalid",
         }
@@ -273,7 +288,7 @@ pub fn summarise(outcome: &VariantOutcome) -> (Class, Option<f64>) {
                 .map(|r| match r.verdict {
                     Verdict::Clear => Class::Clear,
                     Verdict::Ok => Class::Ok,
-                    Verdict::Response => Class::Response,
+                    Verdict::NotJudged => Class::NotJudged,
                     Verdict::Exceeds(_) => Class::Exceeds,
                 })
                 .max()

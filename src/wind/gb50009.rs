@@ -1,13 +1,19 @@
 //! GB 50009-2012 section 8.5.3 and Appendix H.1: across-wind resonance of circular sections.
 //! A comparison method beside EN 1991-1-4 Annex E. Expression (H.1.1-1), the H1 expression
-//! (H.1.1-2), the damping ratios of H.1.1 and Table H.1.1 (towers and chimneys, modes 1-4)
-//! were checked against a published copy of the 2012 text (Appendix H); the rest of
-//! section 8.5 (St, Re factor, regime limits, the 2/3-height rule) is from memory.
+//! (H.1.1-2), the damping ratios of H.1.1, Table H.1.1 (towers and chimneys, modes 1-4) and
+//! clause 8.5.3 (St = 0.2, Re = 69000 v D, the regime limits, the 15 m/s rule, the 2/3-height
+//! diameter for a taper up to 0.02) were checked against a published copy of the 2012 text
+//! (public transcription `longyu8101/GB50009`, chapter 8 and Appendix H; see
+//! data/reference/README.md).
 //!
-//! - St = 0.2; v_cr,j = D / (T_j St); D at 2/3 of the height for a wall slope <= 2 %.
-//! - Re = 69000 v D (v in m/s, D in m; 8.5.3).
-//! - Regimes: Re < 3e5 subcritical (if v_H > v_cr the code asks for structural measures, no
-//!   load formula); 3e5 <= Re < 3.5e6 supercritical (may be ignored); Re >= 3.5e6 with
+//! - St = 0.2; v_cr,j = D / (T_j St) (8.5.3-2); D at 2/3 of the height for an outer-face
+//!   taper <= 0.02 (8.5.3, explanation of D). Beyond that taper the code gives no rule; we
+//!   still use 2/3 H and warn once per case (our own practice).
+//! - Re = 69000 v D (v in m/s, D in m; 8.5.3-1).
+//! - Regimes: Re < 3e5 subcritical: if v_H > v_cr, anti-vibration measures, or keep
+//!   v_cr >= 15 m/s (8.5.3(1); no load formula; the code takes T_1 for this check, we apply
+//!   it to every checked mode, which is on the safe side); 3e5 <= Re < 3.5e6 supercritical
+//!   (may be ignored, 8.5.3(3)); Re >= 3.5e6 with
 //!   1.2 v_H > v_cr transcritical resonance: equivalent load
 //!   w_Lk,j(z) = |lambda_j| v_cr^2 phi_j(z) / (12800 zeta_j)  kN/m2  (H.1.1),
 //!   applied over the width D(z). The constant 12800 = 1600 x 8 bakes in rho = 1.25 kg/m3 and a
@@ -23,8 +29,8 @@
 //! integral over the actual mode shape as well, report both, and use it for modes beyond the
 //! table (the code's note limits the check to modes 1-4).
 //!
-//! Not covered: the building rows of Table H.1.1, the check at several heights for tapered
-//! shells (8.5.4), combination with the along-wind load, and the group/interference factors.
+//! Not covered: the building rows of Table H.1.1, combination with the along-wind load
+//! (Table 8.5.6), and the group/interference factors.
 //! v_H is taken as the site mean speed at the top.
 //! Units: SI (m, m/s, Pa, N/m); the kN constant is converted.
 
@@ -32,14 +38,24 @@ use serde::Serialize;
 
 use crate::wind::shape::ModeShape;
 
-/// Strouhal number of GB 50009 8.5.3 (from memory).
+/// Strouhal number of GB 50009-2012 8.5.3 (circular sections, checked).
 pub const STROUHAL_GB: f64 = 0.2;
-/// Reynolds number factor, Re = 69000 v D (GB 50009 8.5.3, from memory).
+/// Reynolds number factor, Re = 69000 v D (GB 50009-2012 (8.5.3-1), checked).
 pub const REYNOLDS_FACTOR: f64 = 69_000.0;
 /// The 12800 of (H.1.1-1) in SI: Pa = v^2 / (12.8 zeta) (checked, see the module doc).
 pub const LOAD_DIVISOR_SI: f64 = 12.8;
-/// Wall slope above which GB asks for a check at several heights (8.5.4, from memory).
-pub const MAX_SLOPE_FOR_TWO_THIRDS_RULE: f64 = 0.02;
+/// Outer-face taper up to which D may be taken at 2/3 of the height (GB 50009-2012 8.5.3,
+/// explanation of D in (8.5.3-1), checked against a published copy of the code). 8.5.4 is
+/// about torsion and holds no taper rule.
+pub const MAX_TAPER_FOR_TWO_THIRDS_RULE: f64 = 0.02;
+/// First-mode damping ratio of concrete structures (GB 50009-2012 H.1.1, explanation of
+/// zeta_j: steel 0.01, steel buildings 0.02, concrete 0.05; higher modes may take the first
+/// mode's value; checked against a published copy of the code).
+pub const DAMPING_RATIO_CONCRETE: f64 = 0.05;
+/// 8.5.3(1): with a subcritical lock-in (Re < 3e5, v_H > v_cr) either anti-vibration
+/// measures are taken or the critical speed is kept at or above this value, m/s (GB
+/// 50009-2012 8.5.3(1), checked against a published copy of the code).
+pub const SUBCRITICAL_MIN_CRITICAL_SPEED_M_S: f64 = 15.0;
 
 /// lambda_j of Table H.1.1, towers and chimneys, modes 1-4, at H1/H = 0, 0.1, ..., 1.0
 /// (GB 50009-2012 Table H.1.1, checked against a published copy of the code). Tests
@@ -52,7 +68,7 @@ pub const LAMBDA_TOWERS: [[f64; 11]; 4] = [
     [0.30, 0.33, 0.02, -0.20, -0.23, 0.03, 0.16, 0.15, -0.05, -0.18, 0.0],
 ];
 
-/// Flow regime by Reynolds number (GB 50009 8.5.3, from memory).
+/// Flow regime by Reynolds number (GB 50009-2012 8.5.3(1)-(3), checked).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 pub enum Regime {
     /// Re < 3e5.

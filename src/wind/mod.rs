@@ -13,8 +13,10 @@
 pub mod approach1;
 pub mod approach2;
 pub mod constants;
+mod error;
 pub mod fatigue;
 pub mod gb50009;
+mod gb_check;
 pub mod group;
 pub mod loads;
 pub mod profile;
@@ -24,9 +26,10 @@ pub mod verdict;
 
 use serde::Serialize;
 
-use crate::case::{Case, VortexMethod};
+use crate::case::{Case, VortexMethod, Wind};
 use crate::modal::{Mode, StageModel, StageModes};
 
+pub use error::{site_wind, WindError};
 pub use group::GroupRule;
 pub use loads::LoadPoint;
 pub use shape::ModeShape;
@@ -36,7 +39,11 @@ pub use verdict::Verdict;
 /// Results of every stage.
 #[derive(Debug, Clone, Serialize)]
 pub struct VortexResults {
+    /// The site wind the checks used (the case's `[wind]`).
+    pub wind: Wind,
     pub stages: Vec<StageVortex>,
+    /// Case-level warnings, each given once (e.g. the GB 50009 outer-face taper).
+    pub warnings: Vec<String>,
 }
 
 /// Results of one stage.
@@ -119,8 +126,15 @@ pub struct Gb50009Result {
     pub top_speed_m_s: f64,
     /// Transcritical resonance condition (Re >= 3.5e6 and 1.2 v_H > v_cr): load computed.
     pub resonance: bool,
-    /// Subcritical with v_H > v_cr: the code asks for structural measures (no load formula).
+    /// Subcritical (Re < 3e5) with v_H > v_cr: GB 50009-2012 8.5.3(1) asks for
+    /// anti-vibration measures or v_cr >= 15 m/s (no load formula).
     pub subcritical_lock_in: bool,
+    /// With a subcritical lock-in: whether v_cr >= 15 m/s, the 8.5.3(1) alternative to
+    /// measures (`None` when there is no subcritical lock-in).
+    pub subcritical_speed_rule_met: Option<bool>,
+    /// Outer-face taper (D_base - D_top) / (2 H) of the stage; 8.5.3 allows the diameter at
+    /// 2/3 H for a taper up to 0.02.
+    pub outer_face_taper: f64,
     /// H1, m, when 1.2 v_H > v_cr.
     pub lock_in_start_m: Option<f64>,
     /// lambda_j of Table H.1.1 (towers, modes 1-4).
@@ -129,7 +143,11 @@ pub struct Gb50009Result {
     pub lambda_shape: Option<f64>,
     /// lambda_j used (table if available, else the integral).
     pub lambda_used: Option<f64>,
+    /// zeta_j used in (H.1.1-1).
     pub damping_ratio: f64,
+    /// True when `damping_ratio` is the default 0.05 of H.1.1 (concrete), false when the
+    /// case file gives `vortex.damping_ratio`.
+    pub damping_ratio_is_default: bool,
     /// Tip amplitude from the modal response to the equivalent load, m (our derivation).
     pub tip_amplitude_m: Option<f64>,
     pub base_moment_nm: Option<f64>,
@@ -208,6 +226,19 @@ pub struct LoadRow {
     pub stress_pa: f64,
 }
 
+impl Gb50009Result {
+    /// 8.5.3(1): a subcritical lock-in with v_cr below 15 m/s needs anti-vibration measures.
+    pub fn subcritical_measures_required(&self) -> bool {
+        self.subcritical_lock_in && self.subcritical_speed_rule_met == Some(false)
+    }
+
+    /// Whether this mode's GB result carries a finding (a load, or measures required): only
+    /// then is GB's outer-face taper rule worth a warning.
+    pub fn shows_a_result(&self) -> bool {
+        self.resonance || self.subcritical_lock_in
+    }
+}
+
 impl ModeVortex {
     /// The summary of the governing method.
     pub fn governing_summary(&self) -> &MethodSummary {
@@ -265,6 +296,14 @@ impl VortexResults {
         self.stages.iter().any(StageVortex::any_exceeds)
     }
 
+    /// True when no mode was judged (no criteria given; exit code 3).
+    pub fn nothing_judged(&self) -> bool {
+        self.stages
+            .iter()
+            .flat_map(|s| &s.modes)
+            .all(|m| m.verdict.is_not_judged())
+    }
+
     pub fn vortex_rows(&self) -> Vec<VortexRow> {
         self.stages
             .iter()
@@ -280,15 +319,23 @@ impl VortexResults {
     }
 }
 
-/// Checks every stage (in the order given).
-pub fn check_all(case: &Case, stages: &[StageModes]) -> VortexResults {
-    VortexResults {
-        stages: stages.iter().map(|s| check_stage(case, s)).collect(),
-    }
+/// Checks every stage (in the order given). Needs the case's `[wind]`.
+pub fn check_all(case: &Case, stages: &[StageModes]) -> Result<VortexResults, WindError> {
+    let wind = *site_wind(case, "check")?;
+    let stages = stages
+        .iter()
+        .map(|s| check_stage(case, s))
+        .collect::<Result<Vec<StageVortex>, WindError>>()?;
+    let warnings = gb_check::taper_warning(&stages).into_iter().collect();
+    Ok(VortexResults {
+        wind,
+        stages,
+        warnings,
+    })
 }
 
-/// Checks the first `case.vortex.modes` modes of one stage.
-pub fn check_stage(case: &Case, stage_modes: &StageModes) -> StageVortex {
+/// Checks the first `case.vortex.modes` modes of one stage. Needs the case's `[wind]`.
+pub fn check_stage(case: &Case, stage_modes: &StageModes) -> Result<StageVortex, WindError> {
     let mut warnings = Vec::new();
     let wanted = case.vortex.modes;
     if stage_modes.modes.len() < wanted {
@@ -304,24 +351,31 @@ pub fn check_stage(case: &Case, stage_modes: &StageModes) -> StageVortex {
         .iter()
         .take(wanted)
         .map(|m| check_mode(case, &stage_modes.stage.name, &stage_modes.model, m))
-        .collect();
-    StageVortex {
+        .collect::<Result<Vec<ModeVortex>, WindError>>()?;
+    Ok(StageVortex {
         stage: stage_modes.stage.name.clone(),
         modes,
         warnings,
-    }
+    })
 }
 
-/// Critical damping ratio for GB 50009: the case's value or delta_s / (2 pi).
+/// Critical damping ratio for GB 50009: the case's `vortex.damping_ratio`, or 0.05, the
+/// first-mode value GB 50009-2012 H.1.1 gives for concrete structures (the tool is for RC
+/// shells; H.1.1 lets higher modes take the first mode's value).
 pub fn damping_ratio(case: &Case) -> f64 {
     case.vortex
         .damping_ratio
-        .unwrap_or(case.vortex.log_decrement / (2.0 * std::f64::consts::PI))
+        .unwrap_or(gb50009::DAMPING_RATIO_CONCRETE)
 }
 
-/// Checks one mode of one stage.
-pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> ModeVortex {
-    let wind = &case.wind;
+/// Checks one mode of one stage. Needs the case's `[wind]`.
+pub fn check_mode(
+    case: &Case,
+    stage: &str,
+    model: &StageModel,
+    mode: &Mode,
+) -> Result<ModeVortex, WindError> {
+    let wind = site_wind(case, "check")?;
     let vortex = &case.vortex;
     let mut warnings = Vec::new();
     let shape = ModeShape::from_mode(model, mode);
@@ -450,7 +504,7 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
         (Some(a1), Some(a2))
     };
 
-    let (gb, gb_loads) = gb_check(case, model, &shape, mode, &mut warnings);
+    let (gb, gb_loads) = gb_check::gb_check(case, wind, model, &shape, mode, &mut warnings);
 
     let comparison = vec![
         MethodSummary {
@@ -471,7 +525,7 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
         },
         MethodSummary {
             method: VortexMethod::Gb50009H1,
-            applies: gb.resonance || gb.subcritical_lock_in,
+            applies: gb.resonance || gb.subcritical_measures_required(),
             tip_amplitude_m: gb.tip_amplitude_m,
             base_moment_nm: gb.base_moment_nm,
             max_stress_pa: gb.max_stress_pa,
@@ -490,16 +544,21 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
             (loads, screened, Vec::new())
         }
         VortexMethod::Gb50009H1 => {
-            let extra = if gb.subcritical_lock_in {
+            // 8.5.3(1): a subcritical lock-in asks for anti-vibration measures unless
+            // v_cr >= 15 m/s.
+            let extra = if gb.subcritical_measures_required() {
                 vec![format!(
-                    "GB 50009 8.5.3 subcritical lock-in (v_H {:.2} m/s > v_cr {:.2} m/s): \
-                     structural measures required",
-                    gb.top_speed_m_s, gb.critical_speed_m_s
+                    "GB 50009 8.5.3 subcritical lock-in (v_H {:.2} m/s > v_cr {:.2} m/s, \
+                     v_cr < {} m/s): anti-vibration measures required",
+                    gb.top_speed_m_s,
+                    gb.critical_speed_m_s,
+                    gb50009::SUBCRITICAL_MIN_CRITICAL_SPEED_M_S
                 )]
             } else {
                 Vec::new()
             };
-            (gb_loads, !(gb.resonance || gb.subcritical_lock_in), extra)
+            let applies = gb.resonance || gb.subcritical_measures_required();
+            (gb_loads, !applies, extra)
         }
     };
     let summary = comparison
@@ -517,7 +576,7 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
         &extra,
     );
 
-    ModeVortex {
+    Ok(ModeVortex {
         stage: stage.to_string(),
         mode: mode.number,
         frequency_hz: n,
@@ -542,7 +601,7 @@ pub fn check_mode(case: &Case, stage: &str, model: &StageModel, mode: &Mode) -> 
         loads,
         verdict,
         warnings,
-    }
+    })
 }
 
 fn scale_loads(unit: &[LoadPoint], y: f64) -> Vec<LoadPoint> {
@@ -556,94 +615,4 @@ fn scale_loads(unit: &[LoadPoint], y: f64) -> Vec<LoadPoint> {
             stress_pa: l.stress_pa * y,
         })
         .collect()
-}
-
-/// GB 50009 App. H.1 for one mode (see [`gb50009`]).
-fn gb_check(
-    case: &Case,
-    model: &StageModel,
-    shape: &ModeShape,
-    mode: &Mode,
-    warnings: &mut Vec<String>,
-) -> (Gb50009Result, Vec<LoadPoint>) {
-    let wind = &case.wind;
-    let h = model.height_m();
-    let top = model.z_m.len() - 1;
-    let strouhal = case.vortex.strouhal.unwrap_or(gb50009::STROUHAL_GB);
-    let z_d = 2.0 * h / 3.0;
-    let d = shape::diameter_at_m(model, z_d);
-    let slope = (model.outer_diameter_m[0] - model.outer_diameter_m[top]).abs() / (2.0 * h);
-    if slope > gb50009::MAX_SLOPE_FOR_TWO_THIRDS_RULE {
-        warnings.push(format!(
-            "mode {}: wall slope {:.3} > 0.02; GB 50009 8.5.4 asks for checks at several \
-             heights, this comparison uses the diameter at 2/3 H only",
-            mode.number, slope
-        ));
-    }
-    let v_cr = shedding::critical_speed_m_s(d, mode.frequency_hz, strouhal);
-    let re = gb50009::reynolds(v_cr, d);
-    let regime = gb50009::regime(re);
-    let v_h = profile::mean_speed_m_s(wind, h);
-    let h1 = gb50009::lock_in_start_m(h, v_cr, |z| profile::mean_speed_m_s(wind, z));
-    let resonance = regime == gb50009::Regime::Transcritical && h1.is_some();
-    let subcritical_lock_in = regime == gb50009::Regime::Subcritical && v_h > v_cr;
-    let h1_eff = h1.unwrap_or(h);
-    let lambda_table = gb50009::lambda_table(mode.number, h1_eff / h);
-    let lambda_shape = gb50009::lambda_from_shape(shape, h1_eff);
-    let lambda_used = lambda_table.or(lambda_shape);
-    let zeta = damping_ratio(case);
-    let mut result = Gb50009Result {
-        strouhal,
-        diameter_height_m: z_d,
-        diameter_m: d,
-        critical_speed_m_s: v_cr,
-        reynolds: re,
-        regime,
-        top_speed_m_s: v_h,
-        resonance,
-        subcritical_lock_in,
-        lock_in_start_m: h1,
-        lambda_table,
-        lambda_shape,
-        lambda_used,
-        damping_ratio: zeta,
-        tip_amplitude_m: None,
-        base_moment_nm: None,
-        max_stress_pa: None,
-    };
-    let (true, Some(lambda)) = (resonance, lambda_used) else {
-        return (result, Vec::new());
-    };
-    // phi normalised to 1 at the top, as the code's mode coefficient.
-    let phi_top = mode.displacement[top];
-    if phi_top.abs() < 1e-6 {
-        warnings.push(format!(
-            "mode {}: the top does not move; GB 50009 load (top-normalised) not computed",
-            mode.number
-        ));
-        return (result, Vec::new());
-    }
-    // Line load p = w_Lk(z) D(z) = scale * D(z) * Phi(z).
-    let scale = gb50009::equivalent_pressure_pa(lambda, v_cr, 1.0 / phi_top, zeta);
-    let line: Vec<f64> = (0..model.z_m.len())
-        .map(|i| scale * model.outer_diameter_m[i] * mode.displacement[i])
-        .collect();
-    let loads = loads::effects(
-        model,
-        shape,
-        scale,
-        |e, t| shape::element_diameter_m(model, e, t),
-        &[],
-        &line,
-    );
-    // Modal response to that load: q = int p Phi / (omega^2 M*), tip = q |Phi_top|.
-    let gen_force = shape.integrate(0.0, h, |e, t, _, p| {
-        scale * shape::element_diameter_m(model, e, t) * p * p
-    });
-    let omega2 = (2.0 * std::f64::consts::PI * mode.frequency_hz).powi(2);
-    let q = gen_force / (omega2 * shape::generalised_mass_kg(model, shape));
-    result.tip_amplitude_m = Some((q * phi_top).abs());
-    result.base_moment_nm = Some(loads[0].moment_nm.abs());
-    result.max_stress_pa = Some(loads::max_abs_stress_pa(&loads));
-    (result, loads)
 }

@@ -1,9 +1,11 @@
 //! The verdict of one stage/mode against the user's criteria.
 //!
-//! `clear`: screened out by EN 1991-1-4 E.1.2 (or, with GB 50009 governing, outside its
-//! resonance conditions); `ok`: a response exists and meets every criterion; `response`: a
-//! response exists and no criteria were given; `exceeds: ...` lists each criterion exceeded
-//! with the values, e.g. "exceeds: tip amplitude 0.41 m > 0.35 m".
+//! `not judged`: the case gives no `[criteria]`, so nothing can be judged (not even a
+//! screened-out mode is called a pass: scripts read the exit code, and exit 0 must mean "every
+//! judged check passes"); `clear`: screened out by EN 1991-1-4 E.1.2 (or, with GB 50009
+//! governing, outside its resonance conditions); `ok`: a response exists and meets every
+//! criterion; `exceeds: ...` lists each criterion exceeded with the values, e.g.
+//! "exceeds: tip amplitude 0.41 m > 0.35 m".
 
 use std::fmt;
 
@@ -16,7 +18,8 @@ use crate::case::Criteria;
 pub enum Verdict {
     Clear,
     Ok,
-    Response,
+    /// No criterion given: the response (if any) is reported but not judged.
+    NotJudged,
     /// Each entry names the criterion and the values.
     Exceeds(Vec<String>),
 }
@@ -25,6 +28,10 @@ impl Verdict {
     pub fn is_exceeds(&self) -> bool {
         matches!(self, Verdict::Exceeds(_))
     }
+
+    pub fn is_not_judged(&self) -> bool {
+        matches!(self, Verdict::NotJudged)
+    }
 }
 
 impl fmt::Display for Verdict {
@@ -32,7 +39,7 @@ impl fmt::Display for Verdict {
         match self {
             Verdict::Clear => f.write_str("clear"),
             Verdict::Ok => f.write_str("ok"),
-            Verdict::Response => f.write_str("response"),
+            Verdict::NotJudged => f.write_str("not judged"),
             Verdict::Exceeds(what) => write!(f, "exceeds: {}", what.join("; ")),
         }
     }
@@ -53,8 +60,15 @@ pub struct Response {
     pub max_stress_pa: Option<f64>,
 }
 
+/// The one-line statement printed (stderr, note warnings, summary.json) when a case has no
+/// criteria.
+pub const NOT_JUDGED_STATEMENT: &str = "no [criteria] given: no verdict is judged (every \
+     verdict says \"not judged\"; exit code 3); give criteria.tip_amplitude_m, \
+     criteria.tip_amplitude_per_diameter or criteria.stress_mpa";
+
 /// Judges one mode. `extra_failures` are method-specific failures that hold whatever the
 /// criteria (e.g. a GB 50009 subcritical lock-in); they count only when criteria are given.
+/// Without criteria every mode is [`Verdict::NotJudged`], screened out or not.
 pub fn judge(
     criteria: &Criteria,
     screened_out: bool,
@@ -62,11 +76,11 @@ pub fn judge(
     top_diameter_m: f64,
     extra_failures: &[String],
 ) -> Verdict {
+    if criteria.is_empty() {
+        return Verdict::NotJudged;
+    }
     if screened_out {
         return Verdict::Clear;
-    }
-    if criteria.is_empty() {
-        return Verdict::Response;
     }
     let mut what = Vec::new();
     if let Some(tip) = response.tip_amplitude_m {
@@ -121,8 +135,14 @@ mod tests {
         assert_eq!(judge(&c, true, r, 8.0, &[]), Verdict::Clear);
         assert_eq!(
             judge(&Criteria::default(), false, r, 8.0, &[]),
-            Verdict::Response
+            Verdict::NotJudged
         );
+        // No criteria is not a pass, even for a screened-out mode.
+        assert_eq!(
+            judge(&Criteria::default(), true, r, 8.0, &[]),
+            Verdict::NotJudged
+        );
+        assert_eq!(Verdict::NotJudged.to_string(), "not judged");
         let ok = Response {
             tip_amplitude_m: Some(0.1),
             max_stress_pa: Some(1e6),

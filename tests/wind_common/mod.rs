@@ -44,7 +44,7 @@ pub fn case(wind: Wind, method: VortexMethod, criteria: Criteria) -> Case {
         point_masses: vec![],
         base: None,
         stages: vec![stage()],
-        wind,
+        wind: Some(wind),
         vortex: Vortex {
             method,
             strouhal: None,

@@ -134,7 +134,7 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
     }
     .write(out);
     out.push_str("<h3>2.4 Wind and vortex-shedding settings</h3>\n");
-    let profile = match c.wind.profile {
+    let profile = match input.vortex.wind.profile {
         Profile::Power { exponent } => format!("power law, exponent {exponent:.3}"),
         Profile::Log {
             roughness_m,
@@ -146,20 +146,20 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
     let mut rows = vec![
         vec![
             t("mean wind speed at reference height (m/s)"),
-            n(num(c.wind.reference_speed_m_s, 2)),
+            n(num(input.vortex.wind.reference_speed_m_s, 2)),
         ],
         vec![
             t("reference height (m)"),
-            n(num(c.wind.reference_height_m, 1)),
+            n(num(input.vortex.wind.reference_height_m, 1)),
         ],
         vec![t("profile"), t(profile)],
         vec![
             t("air density ρ (kg/m³)"),
-            n(num(c.wind.air_density_kg_m3, 3)),
+            n(num(input.vortex.wind.air_density_kg_m3, 3)),
         ],
         vec![
             t("kinematic viscosity ν (m²/s)"),
-            n(sci(c.wind.kinematic_viscosity_m2_s)),
+            n(sci(input.vortex.wind.kinematic_viscosity_m2_s)),
         ],
         vec![t("governing method"), t(method_name(c.vortex.method))],
         vec![

@@ -21,7 +21,7 @@ const SAMPLES: usize = 121;
 /// that is not screened out, in mode order; each curve's x is the mean speed at the mode's
 /// shedding height and includes the design speed itself as a sample.
 pub fn figure(input: &ReportInput) -> Figure {
-    let wind = &input.case.wind;
+    let wind = &input.vortex.wind;
     let mut panels = Vec::new();
     let mut footnotes = Vec::new();
     let mut n_modes = 0;

@@ -19,7 +19,7 @@ fn profile_heights(top_m: f64) -> Vec<f64> {
 
 /// The wind-map plot.
 pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
-    let wind = &input.case.wind;
+    let wind = &input.vortex.wind;
     let h = max_height_m(input);
     let v_max = input
         .stages
