@@ -218,7 +218,7 @@ fn required_log_decrement_is_the_smallest_that_passes() {
             .find(|s| s.stage == r.stage)
             .and_then(|s| s.modes.iter().find(|m| m.mode == r.mode))
             .unwrap();
-        assert_eq!(r.scruton, m.scruton);
+        assert_eq!(r.scruton, Some(m.scruton));
         assert_eq!(r.max_stress_pa, m.governing_summary().max_stress_pa);
         let sized = remedies
             .required_damping

@@ -153,7 +153,9 @@ fn model_masses_follow_the_mass_ratio() {
     );
     assert!((4e9 / b.lateral_n_per_m.unwrap() / k.lateral_stiffness - 1.0).abs() < FILE_ROUNDING);
     // Wind at model scale: speeds / k_v, heights / k_l; log decrement identical.
-    assert!((model.wind.unwrap().reference_speed_m_s * k.velocity / 30.0 - 1.0).abs() < FILE_ROUNDING);
+    assert!(
+        (model.wind.unwrap().reference_speed_m_s * k.velocity / 30.0 - 1.0).abs() < FILE_ROUNDING
+    );
     assert!((model.wind.unwrap().reference_height_m * k_l / 10.0 - 1.0).abs() < FILE_ROUNDING);
     assert_eq!(model.vortex.log_decrement, case.vortex.log_decrement);
 }

@@ -178,11 +178,10 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
     let base_dir = case_path.parent().unwrap_or_else(|| Path::new(""));
     // Fail on a bad key before creating the output folder or doing any work.
     check_keys(&table, &vary)?;
-    // Every variant is checked like `check`, wind checks included: a case without [wind]
-    // is refused once here rather than once per variant.
-    if !table.contains_key("wind") {
-        return Err(crate::wind::WindError::MissingWind { command: "sweep" }.into());
-    }
+    // Every variant is checked like `check`, wind checks included; a case without [wind]
+    // is a modal sweep (frequencies only, nothing judged, no lock-in map).
+    let modal_only =
+        !table.contains_key("wind") && !vary.iter().any(|v| v.key.starts_with("wind."));
     let mut staging = Staging::begin(out)?;
 
     let n = sweep::grid_size(&vary).unwrap_or(0) as u64;
@@ -204,7 +203,7 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
 
     staging.write("sweep.csv", &sweep_csv(&vary, &variants)?)?;
     let mut map_note = None;
-    if vary.len() >= 2 {
+    if vary.len() >= 2 && !modal_only {
         let map = sweep::lock_in_map(&vary, 0, 1, &variants);
         let title = format!("stackwake sweep of {label}");
         staging.write("sweep_map.svg", lock_in_map_svg(&map, &title).as_bytes())?;
@@ -231,6 +230,12 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
             class.label(),
             counts[class as usize]
         ));
+    }
+    if modal_only {
+        stdout.push_str(
+            "modal sweep: the case has no [wind], so sweep.csv holds frequencies only (no \
+             vortex check, no verdict, no lock-in map); add [wind] to check lock-in\n",
+        );
     }
     if let Some(note) = map_note {
         stdout.push_str(&format!(

@@ -134,10 +134,12 @@ pub struct ModeRow {
     pub stage: String,
     pub mode: usize,
     pub frequency_hz: f64,
-    pub critical_speed_m_s: f64,
-    pub speed_ratio: f64,
-    /// Scruton number (EN 1991-1-4 E.4), dimensionless.
-    pub scruton: f64,
+    /// Critical speed (EN 1991-1-4 E.1.3.1), m/s; `None` in a modal sweep (no `[wind]`).
+    pub critical_speed_m_s: Option<f64>,
+    /// Critical over mean speed at the shedding height; `None` in a modal sweep.
+    pub speed_ratio: Option<f64>,
+    /// Scruton number (EN 1991-1-4 E.4), dimensionless; `None` in a modal sweep.
+    pub scruton: Option<f64>,
     /// Governing method's tip amplitude, m (`None` when screened out).
     pub tip_amplitude_m: Option<f64>,
     /// Governing method's largest across-wind stress, Pa (`None` when screened out).
@@ -188,6 +190,9 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
             min_elements: None,
         },
     )?;
+    if case.wind.is_none() {
+        return Ok(modal_rows(&stages));
+    }
     let vortex = wind::check_all(case, &stages)?;
     let wind = &vortex.wind;
     Ok(vortex
@@ -201,9 +206,9 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
                     stage: s.stage.clone(),
                     mode: m.mode,
                     frequency_hz: m.frequency_hz,
-                    critical_speed_m_s: m.critical_speed_m_s,
-                    speed_ratio: m.speed_ratio,
-                    scruton: m.scruton,
+                    critical_speed_m_s: Some(m.critical_speed_m_s),
+                    speed_ratio: Some(m.speed_ratio),
+                    scruton: Some(m.scruton),
                     tip_amplitude_m: g.tip_amplitude_m,
                     max_stress_pa: g.max_stress_pa,
                     required_log_decrement: required_log_decrement(case, wind, sm, m),
@@ -212,6 +217,27 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
             })
         })
         .collect())
+}
+
+/// Rows of a modal sweep (a case without `[wind]`): frequencies only, nothing judged.
+fn modal_rows(stages: &[StageModes]) -> Vec<ModeRow> {
+    stages
+        .iter()
+        .flat_map(|sm| {
+            sm.modes.iter().map(move |m| ModeRow {
+                stage: sm.stage.name.clone(),
+                mode: m.number,
+                frequency_hz: m.frequency_hz,
+                critical_speed_m_s: None,
+                speed_ratio: None,
+                scruton: None,
+                tip_amplitude_m: None,
+                max_stress_pa: None,
+                required_log_decrement: None,
+                verdict: Verdict::NotJudged,
+            })
+        })
+        .collect()
 }
 
 /// The structural log decrement a failing mode needs (see
@@ -295,7 +321,7 @@ pub fn summarise(outcome: &VariantOutcome) -> (Class, Option<f64>) {
                 .unwrap_or(Class::Clear);
             let ratio = rows
                 .iter()
-                .map(|r| r.speed_ratio)
+                .filter_map(|r| r.speed_ratio)
                 .fold(None, |a: Option<f64>, r| Some(a.map_or(r, |a| a.min(r))));
             (class, ratio)
         }
