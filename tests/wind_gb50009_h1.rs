@@ -1,5 +1,5 @@
 //! GB 50009-2012 8.5.3 and Appendix H.1 (a comparison method; 8.5.3, H.1.1 and Table H.1.1
-//! checked against a published copy of the code, public transcription `longyu8101/GB50009`,
+//! checked against a published copy of the code, public copy `longyu8101/GB50009`,
 //! chapter 8 and Appendix H):
 //! Re = 69000 v D, St = 0.2, transcritical resonance load
 //! w_Lk,j = |lambda_j| v_cr^2 phi_j(z) / (12800 zeta_j) kN/m2, lambda_j from Table H.1.1,

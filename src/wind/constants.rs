@@ -1,6 +1,6 @@
 //! Registry of the method constants whose values were implemented without the published
 //! standard at hand: each entry says its value, where it is used, and what it has been
-//! checked against since (a public transcription of the standard, or nothing: "from
+//! checked against since (a public copy of the standard, or nothing: "from
 //! memory"). The design note renders this list as one table in its method section, and a
 //! unit test checks that every entry carries a source status, so a constant cannot be added
 //! here without saying where it comes from.
@@ -14,8 +14,8 @@ use crate::wind::{approach1, approach2, fatigue, gb50009, shedding};
 /// How far a constant has been checked.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum SourceStatus {
-    /// Agrees with a public transcription of the standard (named in `checked_against`).
-    ConfirmedByTranscription,
+    /// Agrees with a public copy of the standard (named in `checked_against`).
+    ConfirmedByPublicText,
     /// Recalled from the standard; no public text found that states it.
     FromMemory,
     /// Our own reading or choice where the standard gives a chart or nothing.
@@ -26,7 +26,7 @@ impl SourceStatus {
     /// Short label for the note.
     pub fn label(self) -> &'static str {
         match self {
-            SourceStatus::ConfirmedByTranscription => "confirmed",
+            SourceStatus::ConfirmedByPublicText => "confirmed",
             SourceStatus::FromMemory => "from memory",
             SourceStatus::OurOwnChoice => "our own choice",
         }
@@ -43,15 +43,15 @@ pub struct ConstantEntry {
     /// Where the code uses it.
     pub used_in: &'static str,
     pub status: SourceStatus,
-    /// What it was checked against (repository and path of the public transcription), or
+    /// What it was checked against (repository and path of the public copy), or
     /// what was searched without result.
     pub checked_against: &'static str,
 }
 
-const SWE: &str = "repo mpentek/SWELecture, Ex04WindEffOnStructHighrise/\
+const SWE: &str = "repo of GitHub user mpentek (TU Munich wind engineering course notebooks), Ex04WindEffOnStructHighrise/\
                    swe_ws2021_4_2_structural_effects.ipynb";
 const VIV: &str = "repo EricS98/VIV-Time-Domain-Simulation-Tool";
-const GB: &str = "repo longyu8101/GB50009, source/H.rst and source/8.rst";
+const GB: &str = "repo longyu8101/GB50009, build/html/H.html and docs/8.html (the text of source/H.rst and source/8.rst)";
 const NOT_FOUND: &str = "no public text found that states it (searches listed in \
                          data/reference/README.md)";
 
@@ -78,14 +78,14 @@ pub fn registry() -> Vec<ConstantEntry> {
             "screening factor (E.1.2)",
             format!("v_crit > {} v_m", shedding::SCREENING_FACTOR),
             "E.1.2 screening of every mode",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             SWE,
         ),
         e(
             "c_lat,0 corners (Figure E.2)",
             "0.7 (Re <= 3e5), 0.2 (5e5 to 5e6), 0.3 (>= 1e7)".into(),
             "approach 1",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             VIV,
         ),
         e(
@@ -100,21 +100,21 @@ pub fn registry() -> Vec<ConstantEntry> {
             "Table E.3 (c_lat vs v_crit/v_m,Lj)",
             "1 to 0.83; 3 - 2.4 ratio to 1.25; 0 above".into(),
             "approach 1",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             SWE,
         ),
         e(
             "Table E.4 (L_j/b vs y_F/b)",
             "6; 4.8 + 12 y_F/b; 12".into(),
             "approach 1",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             SWE,
         ),
         e(
             "K_W cap (E.8)",
             format!("{}", approach1::KW_MAX),
             "approach 1",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             SWE,
         ),
         e(
@@ -124,28 +124,28 @@ pub fn registry() -> Vec<ConstantEntry> {
                 approach1::K_CANTILEVER_TABLE
             ),
             "tests of the K integral",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             SWE,
         ),
         e(
             "a_L (Table E.7, approach 2)",
             format!("{}", approach2::A_L),
             "approach 2",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             VIV,
         ),
         e(
             "K_a,max (approach 2)",
             "2.0 (Re <= 1e5), 0.5 (5e5), 1.0 (>= 1e6)".into(),
             "approach 2 (K_a = K_a,max)",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             VIV,
         ),
         e(
             "k_p (approach 2)",
             "sqrt(2) [1 + 1.2 atan(0.75 (Sc / (4 pi K_a))^4)]".into(),
             "approach 2",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             VIV,
         ),
         e(
@@ -205,21 +205,21 @@ pub fn registry() -> Vec<ConstantEntry> {
                 gb50009::REYNOLDS_FACTOR
             ),
             "GB 50009 comparison",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             GB,
         ),
         e(
             "GB 50009: w = |lambda| v_cr^2 phi / (12800 zeta)",
             format!("12800 (kN/m2) = {} in Pa", gb50009::LOAD_DIVISOR_SI),
             "GB 50009 comparison",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             GB,
         ),
         e(
             "GB 50009: Table H.1.1 (towers)",
             format!("lambda_1 at H1/H = 0: {lambda1}, ... (4 modes x 11 rows)"),
             "GB 50009 comparison",
-            ConfirmedByTranscription,
+            ConfirmedByPublicText,
             GB,
         ),
     ]
@@ -241,7 +241,7 @@ mod tests {
                 "{}: what it was checked against",
                 e.name
             );
-            if e.status == SourceStatus::ConfirmedByTranscription {
+            if e.status == SourceStatus::ConfirmedByPublicText {
                 assert!(
                     e.checked_against.starts_with("repo "),
                     "{}: a confirmation names the repository",

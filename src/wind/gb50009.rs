@@ -3,7 +3,7 @@
 //! (H.1.1-2), the damping ratios of H.1.1, Table H.1.1 (towers and chimneys, modes 1-4) and
 //! clause 8.5.3 (St = 0.2, Re = 69000 v D, the regime limits, the 15 m/s rule, the 2/3-height
 //! diameter for a taper up to 0.02) were checked against a published copy of the 2012 text
-//! (public transcription `longyu8101/GB50009`, chapter 8 and Appendix H; see
+//! (public copy `longyu8101/GB50009`, chapter 8 and Appendix H; see
 //! data/reference/README.md).
 //!
 //! - St = 0.2; v_cr,j = D / (T_j St) (8.5.3-2); D at 2/3 of the height for an outer-face

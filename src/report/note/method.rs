@@ -38,7 +38,7 @@ extreme-fibre stress follow; fatigue cycles by E.1.5.2.6 / E.1.5.3.</li>
 load) is computed for comparison; it governs only if chosen.</p>
 <p><b>Constants not read from the published standard.</b> Several constants were
 implemented without the standard's text at hand. Table 3.1 lists each of them with its value,
-where it is used and what it has been checked against since: a public transcription of the
+where it is used and what it has been checked against since: a public copy of the
 standard ("confirmed"), or nothing ("from memory"). Check the "from memory" rows against the
 standard and National Annex in force.</p>
 <p><b>Our own indicator.</b> The lock-in band (heights where the local critical speed
