@@ -82,6 +82,8 @@ pub fn run(
     let mut staging = Staging::begin(out)?;
     staging.check_destinations(&MODAL_FILES)?;
     let stages = analyse_case(&case, options)?;
+    let no_vortex = crate::wind::VortexResults { stages: Vec::new() };
+    crate::report::finite::check_results(&case, &stages, &no_vortex, None)?;
     stage_modal_files(&mut staging, &stages)?;
     let files = staging.commit()?;
     Ok(CommandReport {

@@ -3,6 +3,7 @@
 //! module besides `input` that touches files; it only reads result types.
 
 pub mod csv;
+pub mod finite;
 pub mod html;
 pub mod json;
 pub mod scale_html;
