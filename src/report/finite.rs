@@ -326,13 +326,13 @@ struct_like!(SerializeStruct, SerializeStructVariant);
 mod tests {
     use super::*;
 
-    #[derive(Serialize)]
+    #[derive(serde::Serialize)]
     struct Inner {
         ok_m: f64,
         tip_amplitude_m: Option<f64>,
     }
 
-    #[derive(Serialize)]
+    #[derive(serde::Serialize)]
     struct Outer {
         name: String,
         rows: Vec<Inner>,
