@@ -25,7 +25,12 @@ fn write_cases(dir: &Path) -> Vec<(&'static str, std::path::PathBuf)> {
     let mut csv = String::from("z_m,outer_diameter_m,wall_m\n");
     for i in 0..n {
         let z = 200.0 * i as f64 / (n - 1) as f64;
-        let _ = writeln!(csv, "{z:.6},{:.4},{:.4}", 16.0 - 7.0 * z / 200.0, 0.5 - 0.3 * z / 200.0);
+        let _ = writeln!(
+            csv,
+            "{z:.6},{:.4},{:.4}",
+            16.0 - 7.0 * z / 200.0,
+            0.5 - 0.3 * z / 200.0
+        );
     }
     std::fs::write(dir.join("stations.csv"), csv).unwrap();
     let stations_case = dir.join("stations.toml");
@@ -37,7 +42,11 @@ fn write_cases(dir: &Path) -> Vec<(&'static str, std::path::PathBuf)> {
 
     let mut masses = shell(INLINE_STATIONS);
     for i in 0..1000 {
-        let _ = write!(masses, "\n[[point_mass]]\nz_m = {}\nmass_kg = 1000.0\n", i as f64 * 0.2);
+        let _ = write!(
+            masses,
+            "\n[[point_mass]]\nz_m = {}\nmass_kg = 1000.0\n",
+            i as f64 * 0.2
+        );
     }
     let masses_case = dir.join("masses.toml");
     std::fs::write(&masses_case, masses + WIND_VORTEX).unwrap();

@@ -63,7 +63,13 @@ pub fn check_counts(raw: &RawCase, csv: Option<&CsvStations>) -> Vec<ValidationI
         _ => "shell.stations".to_string(),
     };
     let counts = [
-        (station_path, stations, MAX_STATIONS, "stations", "3 mm apart on a 300 m stack"),
+        (
+            station_path,
+            stations,
+            MAX_STATIONS,
+            "stations",
+            "3 mm apart on a 300 m stack",
+        ),
         (
             "point_mass".to_string(),
             raw.point_mass.len(),
@@ -107,7 +113,11 @@ pub fn check_ranges(raw: &RawCase) -> Vec<ValidationIssue> {
         issues.push(ValidationIssue::new(path, shown(v), rule));
     };
     let (lo, hi) = AIR_DENSITY_RANGE_KG_M3;
-    if let Some(rho) = raw.wind.air_density_kg_m3.filter(|v| v.is_finite() && *v > 0.0) {
+    if let Some(rho) = raw
+        .wind
+        .air_density_kg_m3
+        .filter(|v| v.is_finite() && *v > 0.0)
+    {
         if !(lo..=hi).contains(&rho) {
             fail(
                 "wind.air_density_kg_m3",

@@ -24,8 +24,8 @@ use thiserror::Error;
 use crate::case::Case;
 
 pub use issue::ValidationIssue;
-use read::{read_limited, ReadFailure};
 pub use measured_csv::{load_measured, parse_measured_csv};
+use read::{read_limited, ReadFailure};
 pub use stations_csv::{parse_stations_csv, CsvStations};
 
 /// Largest case file or stations CSV accepted, bytes (10 MiB; real ones are a few kB).
@@ -61,7 +61,9 @@ pub enum InputError {
     OverLimit { label: String, kind: &'static str },
     /// The path names something that is not a regular file (a folder, FIFO, device or
     /// socket): reading a FIFO or a device would block or never end, so it is refused.
-    #[error("{label} is {what}, not a regular file; a {kind} must be a regular file of at most 10 MB")]
+    #[error(
+        "{label} is {what}, not a regular file; a {kind} must be a regular file of at most 10 MB"
+    )]
     NotRegularFile {
         label: String,
         kind: &'static str,

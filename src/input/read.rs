@@ -117,6 +117,9 @@ mod tests {
         let Err(ReadFailure::Other(e)) = read_limited(dir.path(), "d", "stations CSV") else {
             panic!("a folder was read");
         };
-        assert!(e.to_string().contains("d is a folder, not a regular file"), "{e}");
+        assert!(
+            e.to_string().contains("d is a folder, not a regular file"),
+            "{e}"
+        );
     }
 }

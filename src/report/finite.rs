@@ -61,10 +61,7 @@ pub fn check_results(
     for s in &vortex.stages {
         for m in &s.modes {
             if let Some(found) = first_non_finite(m) {
-                return Err(fail(
-                    format!("stage `{}`, mode {}", s.stage, m.mode),
-                    found,
-                ));
+                return Err(fail(format!("stage `{}`, mode {}", s.stage, m.mode), found));
             }
         }
     }
@@ -373,5 +370,24 @@ mod tests {
             Some(&results.remedies),
         )
         .unwrap();
+    }
+
+    #[test]
+    fn an_infinite_amplitude_is_an_error_naming_stage_mode_quantity_and_inputs() {
+        let case = crate::input::demo_case();
+        let mut r = crate::commands::check::analyse(case, Default::default()).unwrap();
+        let m = &mut r.vortex.stages[1].modes[0];
+        m.scruton = f64::INFINITY;
+        let (stage, mode) = (m.stage.clone(), m.mode);
+        let e = check_results(&r.case, &r.stages, &r.vortex, None).unwrap_err();
+        assert_eq!(
+            e.to_string(),
+            format!(
+                "stage `{stage}`, mode {mode}: scruton = inf cannot be computed finitely, so no \
+                 output was written; it depends on vortex.log_decrement = 0.03, \
+                 wind.air_density_kg_m3 = 1.25, wind.reference_speed_m_s = 26 (check those \
+                 values)"
+            )
+        );
     }
 }

@@ -120,7 +120,10 @@ mod tests {
             obsolete: vec![("old.svg".into(), Stamp::of(b"x"))],
         };
         assert_eq!(Journal::parse(&j.text()), Some(j));
-        assert_eq!(Journal::parse("stackwake commit journal 1\nfile a.csv\n"), None);
+        assert_eq!(
+            Journal::parse("stackwake commit journal 1\nfile a.csv\n"),
+            None
+        );
     }
 
     #[test]

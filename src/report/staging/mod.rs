@@ -28,10 +28,10 @@ pub mod manifest;
 use std::path::{Path, PathBuf};
 
 use super::ReportError;
+pub use cleanup::clean_up_on_signals;
 use cleanup::{active, Active, STAGING_PREFIX};
 use journal::{Journal, BACKUP_SUFFIX, OBSOLETE_FOLDER};
 use lock::FolderLock;
-pub use cleanup::clean_up_on_signals;
 pub use lock::LOCK_FILE;
 pub use manifest::MANIFEST;
 use manifest::{manifest_text, Stamp};
