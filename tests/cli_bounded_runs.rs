@@ -202,6 +202,11 @@ fn a_staging_folder_left_by_a_dead_run_is_removed_by_the_next_run() {
     // An older version's folder beside the output folder, same dead PID.
     let legacy = dir.path().join(".out.partial-9999999");
     std::fs::create_dir_all(&legacy).expect("mkdir");
+    // One whose PID is alive (this test process) may be a reused PID: it is kept.
+    let alive = dir
+        .path()
+        .join(format!(".out.partial-{}", std::process::id()));
+    std::fs::create_dir_all(&alive).expect("mkdir");
     let o = stackwake()
         .arg("modes")
         .args(["--modes", "2", "--out"])
@@ -210,6 +215,7 @@ fn a_staging_folder_left_by_a_dead_run_is_removed_by_the_next_run() {
         .expect("run");
     assert_eq!(o.status.code(), Some(0));
     assert!(!stale.exists() && !legacy.exists());
+    assert!(alive.is_dir());
     assert!(names(&out)
         .iter()
         .all(|n| !n.starts_with(".stackwake-staging")));
@@ -309,9 +315,15 @@ fn staging_never_touches_the_parent_folder() {
     std::fs::create_dir(&out).expect("mkdir");
     std::fs::write(dir.path().join("other.txt"), b"x").expect("write");
     let before = names(dir.path());
+    // While a run is staging, nothing new is in the parent folder.
+    let mut staging = stackwake::report::staging::Staging::begin(&out).expect("begin");
+    staging.write("a.csv", b"1").expect("stage");
+    assert_eq!(names(dir.path()), before);
+    assert!(staging.staging_folder().starts_with(&out));
+    staging.commit().expect("commit");
     let o = stackwake()
-        .current_dir(&out)
-        .args(["modes", "--modes", "2", "--out", "."])
+        .args(["modes", "--modes", "2", "--out"])
+        .arg(&out)
         .output()
         .expect("run");
     assert_eq!(o.status.code(), Some(0), "{o:?}");

@@ -1,9 +1,9 @@
 //! The commit journal that makes a commit recoverable. Before the first file is moved into
-//! the output folder, the staging folder gets [`JOURNAL`] (written to a temporary name and
+//! the output folder, the staging folder gets `commit-journal` (written to a temporary name and
 //! renamed, so it is either complete or absent), listing every staged file and the earlier
 //! run's files to be moved out. From then on the commit is decided: if the run is killed
 //! during the moves, the next run into the folder finds the journal and completes the
-//! moves ([`roll_forward`]); a staging folder without a journal was never committed and is
+//! moves (`roll_forward`); a staging folder without a journal was never committed and is
 //! simply removed. Each step of the roll-forward can be repeated, so a second kill during
 //! the recovery is recovered the same way.
 
