@@ -345,3 +345,26 @@ fn staging_never_touches_the_parent_folder() {
         assert_eq!(o.status.code(), Some(0), "{o:?}");
     }
 }
+
+#[test]
+fn a_result_that_is_not_finite_stops_the_run_before_anything_is_written() {
+    // A 20 m construction stage on the demo's base springs: its second mode sways most at
+    // the base, where the power-law mean speed is 0, so critical / mean speed is infinite
+    // (before the guard this wrote `inf` into vortex.csv and `null` into summary.json).
+    let dir = tempfile::tempdir().expect("temp dir");
+    assert!(DEMO.contains("top_z_m = 140.0"), "demo case changed");
+    let (code, stderr) = check_text(
+        dir.path(),
+        &DEMO.replace("top_z_m = 140.0", "top_z_m = 20.0"),
+    );
+    assert_eq!(code, Some(2), "{stderr}");
+    assert!(
+        stderr.contains(
+            "stage `shell to 140 m`, mode 2: speed_ratio = inf cannot be computed finitely, so \
+             no output was written; it depends on the wind profile at this mode's shedding \
+             height z = 0 m"
+        ),
+        "{stderr}"
+    );
+    assert_eq!(names(dir.path()), ["case.toml"]);
+}

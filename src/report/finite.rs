@@ -61,7 +61,18 @@ pub fn check_results(
     for s in &vortex.stages {
         for m in &s.modes {
             if let Some(found) = first_non_finite(m) {
-                return Err(fail(format!("stage `{}`, mode {}", s.stage, m.mode), found));
+                let mut e = fail(format!("stage `{}`, mode {}", s.stage, m.mode), found);
+                if e.quantity.contains("speed") {
+                    // The profile speed is taken at the mode's shedding height.
+                    e.inputs = format!(
+                        "the wind profile at this mode's shedding height z = {} m \
+                         (wind.reference_height_m = {}, wind.reference_speed_m_s = {})",
+                        m.reference_height_m,
+                        case.wind.reference_height_m,
+                        case.wind.reference_speed_m_s
+                    );
+                }
+                return Err(e);
             }
         }
     }

@@ -158,3 +158,33 @@ pub fn clean_up_on_signals() -> bool {
         })
     })
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_killed_commit_is_completed_and_an_uncommitted_run_removed() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path();
+        std::fs::write(target.join("a.csv"), b"old").unwrap();
+        // Killed during its moves: the journal was written, a.csv not yet moved in.
+        let killed = target.join(format!("{STAGING_PREFIX}4000001"));
+        std::fs::create_dir(&killed).unwrap();
+        std::fs::write(killed.join("a.csv"), b"new").unwrap();
+        Journal {
+            files: vec!["a.csv".into()],
+            obsolete: Vec::new(),
+        }
+        .write(&killed)
+        .unwrap();
+        // Killed while staging: no journal, its file must not reach the folder.
+        let staging = target.join(format!("{STAGING_PREFIX}4000002"));
+        std::fs::create_dir(&staging).unwrap();
+        std::fs::write(staging.join("b.csv"), b"half").unwrap();
+        recover_stale(target).unwrap();
+        assert_eq!(std::fs::read(target.join("a.csv")).unwrap(), b"new");
+        assert!(!target.join("b.csv").exists());
+        assert!(!killed.exists() && !staging.exists());
+    }
+}
