@@ -24,8 +24,10 @@ pub const AIR_DENSITY_RANGE_KG_M3: (f64, f64) = (0.5, 2.0);
 pub const MIN_LOG_DECREMENT: f64 = 1e-3;
 /// Smallest damping ratio, the same bound as [`MIN_LOG_DECREMENT`] (zeta = delta / (2 pi)).
 pub const MIN_DAMPING_RATIO: f64 = MIN_LOG_DECREMENT / (2.0 * std::f64::consts::PI);
-/// Longest design life, years: EN 1990 Table 2.1 gives 100 years for monumental structures
-/// (from memory); 1000 years leaves a wide margin and keeps cycle counts finite.
+/// Longest design life, years: EN 1990 Table 2.1 gives 100 years for category 5
+/// (monumental buildings, bridges, other civil engineering structures; read in the
+/// Concrete Society's summary, see data/reference/README.md); 1000 years leaves a wide
+/// margin and keeps cycle counts finite.
 pub const MAX_DESIGN_LIFE_YEARS: f64 = 1000.0;
 
 /// Most shell stations (inline or from a stations CSV): 100 000 stations on a 300 m stack
@@ -164,8 +166,8 @@ pub fn check_ranges(raw: &RawCase) -> Vec<ValidationIssue> {
                 "vortex.design_life_years",
                 y,
                 format!(
-                    "must be at most {MAX_DESIGN_LIFE_YEARS} years (EN 1990 gives 100 years \
-                     for monumental structures)"
+                    "must be at most {MAX_DESIGN_LIFE_YEARS} years (EN 1990 Table 2.1 gives \
+                     100 years for monumental structures)"
                 ),
             );
         }
