@@ -25,6 +25,9 @@ pub enum Error {
         #[source]
         source: crate::input::InputError,
     },
+    /// A result is infinite or not a number; nothing was written.
+    #[error(transparent)]
+    NonFinite(#[from] crate::report::finite::NonFiniteResult),
     /// Output could not be written.
     #[error(transparent)]
     Report(#[from] crate::report::ReportError),

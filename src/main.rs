@@ -202,6 +202,8 @@ fn error_text(e: &anyhow::Error) -> String {
 
 fn main() -> ExitCode {
     stackwake::process::reuse_freed_blocks();
+    // Ctrl-C and SIGTERM remove the staging folder of the run in progress before exiting.
+    stackwake::report::staging::clean_up_on_signals();
     std::panic::set_hook(Box::new(|info| {
         eprintln!("stackwake: internal error (this is a bug; please report it with the case file): {info}");
         std::process::exit(2);

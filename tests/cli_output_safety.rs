@@ -145,9 +145,7 @@ fn a_failed_move_during_commit_is_rolled_back() {
         .expect("free");
     // Interrupt the commit half-way: the staged d.csv disappears from the temporary folder
     // (as if the disk failed), so a.csv, b.csv and c.csv are moved in before d.csv fails.
-    let tmp = dir
-        .path()
-        .join(format!(".out.partial-{}", std::process::id()));
+    let tmp = out.join(format!(".stackwake-staging-{}", std::process::id()));
     assert!(
         tmp.join("d.csv").is_file(),
         "temporary folder layout changed"

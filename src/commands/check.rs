@@ -363,6 +363,12 @@ pub fn run(
     let mut staging = Staging::begin(out)?;
     staging.check_destinations(&CHECK_FILES)?;
     let results = analyse(case, options)?;
+    crate::report::finite::check_results(
+        &results.case,
+        &results.stages,
+        Some(&results.vortex),
+        Some(&results.remedies),
+    )?;
     stage_modal_files(&mut staging, &results.stages)?;
     stage_vortex_files(&mut staging, &results.vortex)?;
     let mut warnings = warnings(&results);

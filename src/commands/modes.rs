@@ -82,6 +82,7 @@ pub fn run(
     let mut staging = Staging::begin(out)?;
     staging.check_destinations(&MODAL_FILES)?;
     let stages = analyse_case(&case, options)?;
+    crate::report::finite::check_results(&case, &stages, None, None)?;
     stage_modal_files(&mut staging, &stages)?;
     let files = staging.commit()?;
     Ok(CommandReport {

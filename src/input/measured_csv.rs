@@ -10,7 +10,7 @@
 use std::path::Path;
 
 use super::issue::{suggestion, ValidationIssue};
-use super::stations_csv::line_of;
+use super::stations_csv::LineIndex;
 use super::{read_limited, InputError, ReadFailure};
 use crate::similitude::measured::ModelMeasurement;
 
@@ -88,13 +88,14 @@ pub fn parse_measured_csv(
         return Err(issues);
     }
 
+    let lines = LineIndex::new(text);
     let mut rows = Vec::new();
     for record in reader.records() {
         let record = match record {
             Ok(r) => r,
             Err(e) => {
                 let place = match e.position() {
-                    Some(p) => format!("{label} line {}", line_of(text, p.byte())),
+                    Some(p) => format!("{label} line {}", lines.line_of(p.byte())),
                     None => label.to_string(),
                 };
                 issues.push(ValidationIssue::key(place, format!("unreadable row: {e}")));
@@ -105,7 +106,7 @@ pub fn parse_measured_csv(
         // stations reader reports it.
         let line = record
             .position()
-            .map(|p| line_of(text, p.byte()))
+            .map(|p| lines.line_of(p.byte()))
             .unwrap_or(0);
         if record.iter().all(str::is_empty) {
             continue;

@@ -9,9 +9,11 @@
 pub mod decode;
 pub mod issue;
 pub mod keypath;
+pub mod limits;
 pub mod measured_csv;
 pub mod plausibility;
 pub mod raw;
+mod read;
 pub mod stations_csv;
 pub mod validate;
 
@@ -24,6 +26,7 @@ use crate::case::Case;
 
 pub use issue::ValidationIssue;
 pub use measured_csv::{load_measured, parse_measured_csv};
+use read::{read_limited, ReadFailure};
 pub use stations_csv::{parse_stations_csv, CsvStations};
 
 /// Largest case file or stations CSV accepted, bytes (10 MiB; real ones are a few kB).
@@ -52,6 +55,21 @@ pub enum InputError {
         /// What the file is for ("case file", "stations CSV").
         kind: &'static str,
         size: MegaBytes,
+    },
+    /// More than [`MAX_INPUT_BYTES`] could be read (a device such as `/dev/zero`, or a file
+    /// that grows while it is read); reading stopped at the limit.
+    #[error("{label}: more than 10 MB read; a {kind} is at most 10 MB (reading stopped there)")]
+    OverLimit { label: String, kind: &'static str },
+    /// The path names something that is not a regular file (a folder, FIFO, device or
+    /// socket): reading a FIFO or a device would block or never end, so it is refused.
+    #[error(
+        "{label} is {what}, not a regular file; a {kind} must be a regular file of at most 10 MB"
+    )]
+    NotRegularFile {
+        label: String,
+        kind: &'static str,
+        /// "a folder", "a named pipe (FIFO)", "a device", "a socket".
+        what: &'static str,
     },
     /// The case file holds no settings at all.
     #[error("{label} is empty: a case file needs at least [shell] ([wind] too for `check` and `sweep`; see the built-in demo case)")]
@@ -311,29 +329,6 @@ pub fn demo_case() -> Case {
         true,
     ));
     case
-}
-
-enum ReadFailure {
-    Io(std::io::Error),
-    Other(InputError),
-}
-
-/// Reads a text file, refusing files over [`MAX_INPUT_BYTES`] before reading them.
-fn read_limited(path: &Path, label: &str, kind: &'static str) -> Result<String, ReadFailure> {
-    let size = std::fs::metadata(path).map_err(ReadFailure::Io)?.len();
-    if size > MAX_INPUT_BYTES {
-        return Err(ReadFailure::Other(InputError::TooLarge {
-            label: label.to_string(),
-            kind,
-            size: MegaBytes(size),
-        }));
-    }
-    let bytes = std::fs::read(path).map_err(ReadFailure::Io)?;
-    String::from_utf8(bytes).map_err(|_| {
-        ReadFailure::Other(InputError::NotText {
-            label: label.to_string(),
-        })
-    })
 }
 
 /// 1-based line and character column of a byte offset.

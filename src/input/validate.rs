@@ -163,7 +163,12 @@ impl Place<'_> {
 /// Checks a raw case and converts it to SI. `csv` holds the stations read from
 /// `shell.stations_csv`, when the case names one.
 pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<ValidationIssue>> {
+    let too_many = super::limits::check_counts(raw, csv);
+    if !too_many.is_empty() {
+        return Err(too_many);
+    }
     let mut c = Checker::default();
+    c.issues.extend(super::limits::check_ranges(raw));
     let shell = check_shell(&mut c, raw, csv);
     let height_m = shell.as_ref().map(Shell::height_m);
 

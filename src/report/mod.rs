@@ -3,6 +3,7 @@
 //! module besides `input` that touches files; it only reads result types.
 
 pub mod csv;
+pub mod finite;
 pub mod json;
 pub mod note;
 pub mod scale_html;

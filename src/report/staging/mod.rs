@@ -1,7 +1,16 @@
-//! All-or-nothing output: files are written into a fresh temporary folder beside the target
-//! and moved into the target only when every one of them was written, so a failed run never
-//! leaves a half-written design note. The temporary folder is created before any analysis,
-//! so an unwritable output path is reported before work is done.
+//! All-or-nothing output. Files are written into a staging folder inside the target,
+//! `OUT/.stackwake-staging-PID` (inside, so that any folder the user can write to works as
+//! an output folder, `~` and `/tmp` included; nothing is created beside it), and moved into
+//! the target only when every one of them was written, so a failed run never leaves a
+//! half-written design note. The staging folder is created before any analysis, so an
+//! unwritable output path is reported before work is done.
+//!
+//! Runs into one folder are serialised by an advisory lock ([`lock`]) held from the
+//! creation of the staging folder to the end of the commit; the second run waits. A commit
+//! first writes a journal ([`journal`]); a run killed during its moves is completed by the
+//! next run into the folder, and a run killed before is simply removed ([`cleanup`], which
+//! also cleans up on Ctrl-C and SIGTERM). A reader that takes a shared `flock` on
+//! `.stackwake-lock` (when it exists) never sees a mix of two runs.
 //!
 //! After a run the folder holds only that run's outputs plus the user's own files: each
 //! commit also writes [`MANIFEST`], listing the files the run wrote (with length and a
@@ -11,12 +20,21 @@
 //! changed since (other length or hash) has become the user's and is kept; a file that no
 //! manifest lists is never touched.
 
+pub mod cleanup;
+pub mod journal;
+pub mod lock;
+pub mod manifest;
+
 use std::path::{Path, PathBuf};
 
 use super::ReportError;
-
-/// The file in each output folder that lists what the last run wrote there.
-pub const MANIFEST: &str = ".stackwake-manifest";
+pub use cleanup::clean_up_on_signals;
+use cleanup::{active, Active, STAGING_PREFIX};
+use journal::{Journal, BACKUP_SUFFIX, OBSOLETE_FOLDER};
+use lock::FolderLock;
+pub use lock::LOCK_FILE;
+pub use manifest::MANIFEST;
+use manifest::{manifest_text, Stamp};
 
 /// An output folder being prepared.
 #[derive(Debug)]
@@ -27,6 +45,10 @@ pub struct Staging {
     /// Length and FNV-1a hash of each staged file, for the manifest.
     stamps: Vec<Stamp>,
     committed: bool,
+    /// Held until the commit ends or the staging folder is removed.
+    lock: Option<FolderLock>,
+    /// Whether this run created the target (removed again if the run fails).
+    created_target: bool,
 }
 
 fn io_error(path: &Path, source: std::io::Error) -> ReportError {
@@ -37,38 +59,47 @@ fn io_error(path: &Path, source: std::io::Error) -> ReportError {
 }
 
 impl Staging {
-    /// Prepares to write into `target` (created if missing on commit).
+    /// Prepares to write into `target` (created now, and removed again if the run fails
+    /// and leaves it empty): takes the folder's lock (waiting for another run), completes
+    /// or removes what interrupted runs left, and creates the staging folder.
     pub fn begin(target: &Path) -> Result<Staging, ReportError> {
         if target.exists() && !target.is_dir() {
             return Err(ReportError::NotAFolder {
                 path: target.to_path_buf(),
             });
         }
-        let parent = match target.parent() {
-            Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
-            _ => PathBuf::from("."),
-        };
-        std::fs::create_dir_all(&parent).map_err(|e| ReportError::CannotCreate {
+        let created_target = !target.exists();
+        std::fs::create_dir_all(target).map_err(|e| ReportError::CannotCreate {
             path: target.to_path_buf(),
-            reason: blocking_ancestor(&parent)
+            reason: blocking_ancestor(target)
                 .map(|a| format!("{} is a file, not a folder", a.display()))
                 .unwrap_or_else(|| e.to_string()),
         })?;
-        let name = target
-            .file_name()
-            .map(|n| n.to_string_lossy().into_owned())
-            .unwrap_or_else(|| "out".into());
-        let tmp = parent.join(format!(".{name}.partial-{}", std::process::id()));
-        if tmp.exists() {
-            std::fs::remove_dir_all(&tmp).map_err(|e| io_error(&tmp, e))?;
-        }
-        std::fs::create_dir(&tmp).map_err(|e| io_error(target, e))?;
+        let give_up = |e: ReportError| {
+            if created_target {
+                let _ = std::fs::remove_dir(target);
+            }
+            e
+        };
+        let lock = FolderLock::acquire(target).map_err(|e| give_up(io_error(target, e)))?;
+        cleanup::recover_stale(target).map_err(|e| give_up(io_error(target, e)))?;
+        cleanup::remove_legacy(target);
+        let tmp = target.join(format!("{STAGING_PREFIX}{}", std::process::id()));
+        let mut runs = active();
+        std::fs::create_dir(&tmp).map_err(|e| give_up(io_error(target, e)))?;
+        runs.push(Active {
+            staging: tmp.clone(),
+            lock_file: lock.path().to_path_buf(),
+            created_target: created_target.then(|| target.to_path_buf()),
+        });
         Ok(Staging {
             target: target.to_path_buf(),
             tmp,
             files: Vec::new(),
             stamps: Vec::new(),
             committed: false,
+            lock: Some(lock),
+            created_target,
         })
     }
 
@@ -77,9 +108,16 @@ impl Staging {
         &self.target
     }
 
+    /// The staging folder (inside the target).
+    pub fn staging_folder(&self) -> &Path {
+        &self.tmp
+    }
+
     /// Stages one file (a plain name, no folders).
     pub fn write(&mut self, name: &str, bytes: &[u8]) -> Result<(), ReportError> {
         let path = self.tmp.join(name);
+        // Held so that the signal clean-up never races a file being created.
+        let _runs = active();
         std::fs::write(&path, bytes).map_err(|e| io_error(&self.target.join(name), e))?;
         self.files.push(name.to_string());
         self.stamps.push(Stamp::of(bytes));
@@ -96,14 +134,15 @@ impl Staging {
     }
 
     /// Moves every staged file into the target folder, all or nothing: every destination is
-    /// checked first; a file being replaced is first moved aside into the temporary folder,
-    /// and if any move fails, the files already moved are taken back out and the originals
-    /// restored, so the folder is left as it was. The new [`MANIFEST`] moves in with the
-    /// files, and the earlier run's files that this run does not write again are moved aside
-    /// last (and put back if that fails); they are deleted with the temporary folder.
-    /// Returns the run's files (not the manifest).
+    /// checked first, then the commit journal is written (from here on an interrupted
+    /// commit is completed by the next run); a file being replaced is first moved aside
+    /// into the staging folder, and if any move fails, the journal is removed, the files
+    /// already moved are taken back out and the originals restored, so the folder is left
+    /// as it was. The new [`MANIFEST`] moves in with the files, and the earlier run's files
+    /// that this run does not write again are moved aside last (and put back if that
+    /// fails); they are deleted with the staging folder. Returns the run's files (not the
+    /// manifest).
     pub fn commit(mut self) -> Result<Vec<PathBuf>, ReportError> {
-        std::fs::create_dir_all(&self.target).map_err(|e| io_error(&self.target, e))?;
         let manifest = manifest_text(&self.files, &self.stamps);
         std::fs::write(self.tmp.join(MANIFEST), manifest.as_bytes())
             .map_err(|e| io_error(&self.target.join(MANIFEST), e))?;
@@ -113,6 +152,15 @@ impl Staging {
             check_destination(&self.target.join(name))?;
         }
         let obsolete = self.obsolete_files();
+        // No signal clean-up while files move: it waits for this lock.
+        let mut runs = active();
+        let journal = Journal {
+            files: names.clone(),
+            obsolete: obsolete.clone(),
+        };
+        journal
+            .write(&self.tmp)
+            .map_err(|e| io_error(&self.tmp.join(journal::JOURNAL), e))?;
         let mut moved: Vec<Moved> = Vec::new();
         let mut failure = None;
         for name in &names {
@@ -126,12 +174,16 @@ impl Staging {
             }
         }
         if failure.is_none() {
+            let obsolete: Vec<String> = obsolete.into_iter().map(|(n, _)| n).collect();
             failure = self.move_aside(&obsolete, &mut moved).err();
         }
         if let Some((dest, source)) = failure {
+            // Not to be completed by a later run: this run puts the folder back.
+            let _ = std::fs::remove_file(self.tmp.join(journal::JOURNAL));
             if let Err(stuck) = self.roll_back(&mut moved) {
-                // Keep the temporary folder: it holds the originals not put back.
+                // Keep the staging folder: it holds the originals not put back.
                 self.committed = true;
+                runs.retain(|a| a.staging != self.tmp);
                 return Err(ReportError::RollbackFailed {
                     path: dest,
                     backup: self.tmp.clone(),
@@ -142,6 +194,9 @@ impl Staging {
         }
         self.committed = true;
         let _ = std::fs::remove_dir_all(&self.tmp);
+        runs.retain(|a| a.staging != self.tmp);
+        drop(runs);
+        self.lock = None;
         Ok(moved
             .into_iter()
             .filter(|m| m.new_file && !m.dest.ends_with(MANIFEST))
@@ -151,23 +206,18 @@ impl Staging {
 
     /// Files the earlier run's manifest lists, that this run does not write, and that are
     /// still exactly as that run wrote them.
-    fn obsolete_files(&self) -> Vec<String> {
+    fn obsolete_files(&self) -> Vec<(String, Stamp)> {
         let Ok(text) = std::fs::read_to_string(self.target.join(MANIFEST)) else {
             return Vec::new();
         };
-        parse_manifest(&text)
+        manifest::parse_manifest(&text)
             .into_iter()
             .filter(|(name, _)| !self.files.contains(name))
-            .filter(|(name, stamp)| {
-                let path = self.target.join(name);
-                let plain = std::fs::symlink_metadata(&path).is_ok_and(|m| m.is_file());
-                plain && std::fs::read(&path).is_ok_and(|b| Stamp::of(&b) == *stamp)
-            })
-            .map(|(name, _)| name)
+            .filter(|(name, stamp)| stamp.matches(&self.target.join(name)))
             .collect()
     }
 
-    /// Moves the earlier run's obsolete files into the temporary folder (recorded in
+    /// Moves the earlier run's obsolete files into the staging folder (recorded in
     /// `moved` so that a roll-back puts them back).
     fn move_aside(
         &self,
@@ -236,13 +286,6 @@ fn blocking_ancestor(path: &Path) -> Option<PathBuf> {
         .map(Path::to_path_buf)
 }
 
-/// Suffix of an original output file kept in the temporary folder during a commit.
-const BACKUP_SUFFIX: &str = ".previous";
-
-/// Folder inside the temporary folder that holds an earlier run's obsolete files during a
-/// commit (a name no staged file has: staged names are plain output names).
-const OBSOLETE_FOLDER: &str = "obsolete-outputs.d";
-
 /// A file moved into the target folder, with the original it replaced (if any); or, with
 /// `new_file` false, an earlier run's file moved out of it into `backup`.
 #[derive(Debug)]
@@ -250,65 +293,6 @@ struct Moved {
     dest: PathBuf,
     backup: Option<PathBuf>,
     new_file: bool,
-}
-
-/// Length and 64-bit FNV-1a hash of a file's bytes: enough to tell whether a file is still
-/// the one a run wrote (this is a guard against deleting a user's edit, not a security
-/// check).
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-struct Stamp {
-    len: u64,
-    fnv1a: u64,
-}
-
-impl Stamp {
-    fn of(bytes: &[u8]) -> Stamp {
-        // FNV-1a, 64-bit offset basis and prime (Fowler, Noll, Vo; common practice).
-        let mut h: u64 = 0xcbf2_9ce4_8422_2325;
-        for &b in bytes {
-            h ^= u64::from(b);
-            h = h.wrapping_mul(0x0000_0100_0000_01b3);
-        }
-        Stamp {
-            len: bytes.len() as u64,
-            fnv1a: h,
-        }
-    }
-}
-
-/// The manifest: a comment header, then `HASH LENGTH NAME` per file.
-fn manifest_text(files: &[String], stamps: &[Stamp]) -> String {
-    let mut s = String::from(
-        "# Files the last stackwake run wrote into this folder (FNV-1a hash, length, name).\n\
-         # The next run into this folder removes those it does not write again, unless they\n\
-         # were changed since; files not listed here are never touched.\n",
-    );
-    for (name, st) in files.iter().zip(stamps) {
-        s.push_str(&format!("{:016x} {} {name}\n", st.fnv1a, st.len));
-    }
-    s
-}
-
-/// The entries of a manifest. Lines that are not exactly what [`manifest_text`] writes,
-/// or that name anything but a plain file name in the folder, are ignored: a damaged or
-/// hand-edited manifest can only make a run remove less.
-fn parse_manifest(text: &str) -> Vec<(String, Stamp)> {
-    text.lines()
-        .filter(|l| !l.starts_with('#'))
-        .filter_map(|l| {
-            let mut parts = l.splitn(3, ' ');
-            let hash = u64::from_str_radix(parts.next()?, 16).ok()?;
-            let len = parts.next()?.parse().ok()?;
-            let name = parts.next()?;
-            let plain = !name.is_empty()
-                && name != "."
-                && name != ".."
-                && name != MANIFEST
-                && !name.contains(['/', '\\'])
-                && !name.chars().any(char::is_control);
-            plain.then(|| (name.to_string(), Stamp { len, fnv1a: hash }))
-        })
-        .collect()
 }
 
 /// Whether a file could be put at `dest`: absent, or a replaceable plain file. Root ignores
@@ -334,13 +318,21 @@ fn check_destination(dest: &Path) -> Result<(), ReportError> {
 impl Drop for Staging {
     fn drop(&mut self) {
         if !self.committed {
+            let mut runs = active();
             let _ = std::fs::remove_dir_all(&self.tmp);
+            runs.retain(|a| a.staging != self.tmp);
+            drop(runs);
+            self.lock = None;
+            if self.created_target {
+                let _ = std::fs::remove_dir(&self.target);
+            }
         }
     }
 }
 
 #[cfg(test)]
 mod tests {
+    use super::manifest::parse_manifest;
     use super::*;
 
     #[test]
