@@ -40,16 +40,14 @@ pub fn run(path: &Path, force: bool) -> Result<CommandReport, Error> {
         Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
         _ => std::path::PathBuf::from("."),
     };
-    let tmp = dir.join(format!(
-        ".{}.partial-{}",
-        path.file_name()
-            .map_or("case".into(), |n| n.to_string_lossy().into_owned()),
-        std::process::id()
-    ));
+    let file_name = path
+        .file_name()
+        .map_or("case".into(), |n| n.to_string_lossy().into_owned());
+    let (tmp, mut f) = create_temporary(&dir, &file_name).map_err(io)?;
     let result = (|| {
-        let mut f = std::fs::File::create(&tmp)?;
         f.write_all(STARTER_TOML.as_bytes())?;
         f.sync_all()?;
+        drop(f);
         std::fs::rename(&tmp, path)
     })();
     if let Err(e) = result {
@@ -70,9 +68,94 @@ pub fn run(path: &Path, force: bool) -> Result<CommandReport, Error> {
     })
 }
 
+/// Creates a new temporary file beside the target, exclusively and without following a
+/// symlink: a name someone could guess (and plant a symlink at, to make us write through it
+/// into another file) is never opened. The name carries the process id and a random part;
+/// an existing name is skipped and another tried.
+fn create_temporary(
+    dir: &Path,
+    file_name: &str,
+) -> std::io::Result<(std::path::PathBuf, std::fs::File)> {
+    use std::hash::{BuildHasher, Hasher};
+    use std::os::unix::fs::OpenOptionsExt;
+    const ATTEMPTS: u32 = 32;
+    let mut last = None;
+    for attempt in 0..ATTEMPTS {
+        // `RandomState` is seeded from the system's random source for every new value;
+        // the clock adds to it.
+        let mut hasher = std::collections::hash_map::RandomState::new().build_hasher();
+        let nanos = std::time::SystemTime::now()
+            .duration_since(std::time::UNIX_EPOCH)
+            .map_or(0, |d| d.as_nanos());
+        hasher.write_u128(nanos);
+        hasher.write_u32(attempt);
+        let tmp = dir.join(format!(
+            ".{file_name}.partial-{}-{:016x}",
+            std::process::id(),
+            hasher.finish()
+        ));
+        match std::fs::OpenOptions::new()
+            .write(true)
+            .create_new(true)
+            .custom_flags(libc::O_NOFOLLOW)
+            .open(&tmp)
+        {
+            Ok(f) => return Ok((tmp, f)),
+            Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => last = Some(e),
+            Err(e) => return Err(e),
+        }
+    }
+    Err(last.unwrap_or_else(|| std::io::Error::from(std::io::ErrorKind::AlreadyExists)))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// A symlink planted at the temporary name the earlier version used
+    /// (`.NAME.partial-PID`) is neither followed nor replaced: the file it points to keeps
+    /// its content, and the starter case lands in the named file.
+    #[test]
+    fn planted_symlink_at_the_old_temporary_name_is_not_followed() {
+        let dir = tempfile::tempdir().unwrap();
+        let victim = dir.path().join("victim.txt");
+        std::fs::write(&victim, "precious").unwrap();
+        let target = dir.path().join("case.toml");
+        let planted = dir
+            .path()
+            .join(format!(".case.toml.partial-{}", std::process::id()));
+        std::os::unix::fs::symlink(&victim, &planted).unwrap();
+        run(&target, false).unwrap();
+        assert_eq!(std::fs::read_to_string(&victim).unwrap(), "precious");
+        assert_eq!(std::fs::read_to_string(&target).unwrap(), STARTER_TOML);
+        assert!(std::fs::symlink_metadata(&planted)
+            .unwrap()
+            .file_type()
+            .is_symlink());
+        // Nothing else is left beside the target.
+        let mut names: Vec<_> = std::fs::read_dir(dir.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().into_string().unwrap())
+            .collect();
+        names.sort();
+        let partial = format!(".case.toml.partial-{}", std::process::id());
+        assert_eq!(names, [partial.as_str(), "case.toml", "victim.txt"]);
+    }
+
+    /// Every attempt draws a new name, so a name taken by someone else is skipped.
+    #[test]
+    fn temporary_names_differ_and_are_created_exclusively() {
+        let dir = tempfile::tempdir().unwrap();
+        let (a, _fa) = create_temporary(dir.path(), "case.toml").unwrap();
+        let (b, _fb) = create_temporary(dir.path(), "case.toml").unwrap();
+        assert_ne!(a, b);
+        assert!(a
+            .file_name()
+            .unwrap()
+            .to_str()
+            .unwrap()
+            .starts_with(&format!(".case.toml.partial-{}-", std::process::id())));
+    }
 
     #[test]
     fn starter_parses_and_validates() {
