@@ -61,6 +61,18 @@ pub enum ReportError {
     /// The output path exists and is not a folder.
     #[error("output path {path} exists and is not a folder")]
     NotAFolder { path: PathBuf },
+    /// The output folder is the root folder or the home folder itself: a run would scatter
+    /// its files (and remove an earlier run's) among the system's or the user's own.
+    #[error(
+        "refusing {path} as the output folder: it is {what} itself; give a subfolder for the \
+         outputs instead (for example --out {example})"
+    )]
+    ProtectedFolder {
+        path: PathBuf,
+        /// "the root folder" or "the home folder ($HOME)".
+        what: &'static str,
+        example: PathBuf,
+    },
     /// A file in the output folder is read-only; nothing was replaced.
     #[error("cannot replace {path}: the file is read-only (no output file was changed)")]
     ReadOnly { path: PathBuf },

@@ -58,11 +58,41 @@ fn io_error(path: &Path, source: std::io::Error) -> ReportError {
     }
 }
 
+/// Refuses the root folder and the home folder `home` themselves (compared after resolving
+/// links and `..`) as output folders; their subfolders are fine. Checked before anything is
+/// created, locked or written.
+fn refuse_protected(target: &Path, home: Option<&Path>) -> Result<(), ReportError> {
+    // A target that does not exist yet cannot be either folder.
+    let Ok(resolved) = std::fs::canonicalize(target) else {
+        return Ok(());
+    };
+    let what = if resolved == Path::new("/") {
+        Some("the root folder")
+    } else if home
+        .filter(|h| !h.as_os_str().is_empty())
+        .and_then(|h| std::fs::canonicalize(h).ok())
+        .is_some_and(|h| h == resolved)
+    {
+        Some("the home folder ($HOME)")
+    } else {
+        None
+    };
+    match what {
+        Some(what) => Err(ReportError::ProtectedFolder {
+            path: target.to_path_buf(),
+            what,
+            example: target.join("stackwake-results"),
+        }),
+        None => Ok(()),
+    }
+}
+
 impl Staging {
     /// Prepares to write into `target` (created now, and removed again if the run fails
     /// and leaves it empty): takes the folder's lock (waiting for another run), completes
     /// or removes what interrupted runs left, and creates the staging folder.
     pub fn begin(target: &Path) -> Result<Staging, ReportError> {
+        refuse_protected(target, std::env::var_os("HOME").as_deref().map(Path::new))?;
         if target.exists() && !target.is_dir() {
             return Err(ReportError::NotAFolder {
                 path: target.to_path_buf(),
@@ -334,6 +364,31 @@ impl Drop for Staging {
 mod tests {
     use super::manifest::parse_manifest;
     use super::*;
+
+    #[test]
+    fn root_and_home_are_refused_but_their_subfolders_are_not() {
+        let home = tempfile::tempdir().unwrap();
+        let sub = home.path().join("results");
+        std::fs::create_dir(&sub).unwrap();
+        let refused = |p: &Path| match refuse_protected(p, Some(home.path())) {
+            Err(ReportError::ProtectedFolder { what, .. }) => Some(what),
+            Err(e) => panic!("unexpected {e}"),
+            Ok(()) => None,
+        };
+        assert_eq!(refused(Path::new("/")), Some("the root folder"));
+        // Spelled otherwise, resolved to the same folder.
+        assert_eq!(refused(Path::new("/tmp/..")), Some("the root folder"));
+        assert_eq!(refused(home.path()), Some("the home folder ($HOME)"));
+        assert_eq!(refused(&sub.join("..")), Some("the home folder ($HOME)"));
+        let link = home.path().join("link-to-home");
+        std::os::unix::fs::symlink(home.path(), &link).unwrap();
+        assert_eq!(refused(&link), Some("the home folder ($HOME)"));
+        assert_eq!(refused(&sub), None);
+        assert_eq!(refused(&home.path().join("not-yet")), None);
+        // No HOME, or an empty one: only the root folder is refused.
+        assert!(refuse_protected(home.path(), None).is_ok());
+        assert!(refuse_protected(home.path(), Some(Path::new(""))).is_ok());
+    }
 
     #[test]
     fn nothing_reaches_the_target_without_commit() {
