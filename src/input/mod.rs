@@ -85,11 +85,16 @@ pub enum InputError {
         message: String,
     },
     /// The stations CSV named by `stations_csv` could not be read.
-    #[error("{label}: cannot read the stations CSV {path}: {source}")]
+    #[error("{label}: cannot read the stations CSV {path}{how}: {source}")]
     StationsCsv {
         /// The case file naming the CSV.
         label: String,
+        /// The file looked for (a relative `stations_csv` resolved against the case file's
+        /// folder).
         path: PathBuf,
+        /// How `path` was found from `stations_csv`, e.g. ` (stations_csv = "s.csv",
+        /// relative to the case file's folder)`; empty for an absolute name.
+        how: String,
         #[source]
         source: std::io::Error,
     },
@@ -206,6 +211,7 @@ pub fn parse_case_with_csv(
         None => Err(InputError::StationsCsv {
             label: file_label.to_string(),
             path: PathBuf::from(name),
+            how: String::new(),
             source: std::io::Error::from(std::io::ErrorKind::NotFound),
         }),
     })
@@ -252,12 +258,23 @@ pub fn parse_case_table(
     })
 }
 
+/// Reads the stations CSV named `name` in a case file in `base_dir`. A relative name is
+/// resolved against the case file's folder (not the working folder), and every message
+/// shows the resolved path and says so.
 fn read_stations_file(base_dir: &Path, name: &str, file_label: &str) -> Result<String, InputError> {
     let csv_path = base_dir.join(name);
-    read_limited(&csv_path, name, "stations CSV").map_err(|e| match e {
+    let shown = std::path::absolute(&csv_path).unwrap_or_else(|_| csv_path.clone());
+    let how = if Path::new(name).is_absolute() {
+        String::new()
+    } else {
+        format!(" (stations_csv = {name:?}, relative to the case file's folder)")
+    };
+    let label = format!("{}{how}", shown.display());
+    read_limited(&csv_path, &label, "stations CSV").map_err(|e| match e {
         ReadFailure::Io(source) => InputError::StationsCsv {
             label: file_label.to_string(),
-            path: csv_path.clone(),
+            path: shown.clone(),
+            how: how.clone(),
             source,
         },
         ReadFailure::Other(e) => e,

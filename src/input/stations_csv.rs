@@ -102,7 +102,9 @@ pub fn parse_stations_csv(text: &str, label: &str) -> Result<CsvStations, Vec<Va
     // it would cause say nothing more, so they are left out.
     let mut refused_unit = false;
     for (i, raw_name) in headers.iter().enumerate() {
-        if !looks_like_a_column(raw_name) {
+        // Once the header is ours, a plain word (`thickness`) is quoted too: it is a
+        // column name the user typed, not a stranger's text.
+        if !looks_like_a_column(raw_name) && !is_plain_name(raw_name) {
             issues.push(ValidationIssue::key(
                 header_place.clone(),
                 format!(
@@ -355,6 +357,15 @@ fn looks_like_a_column(cell: &str) -> bool {
             || matches!(unit.as_str(), "m" | "metre" | "metres" | "meter" | "meters");
     }
     nearest(cell, &STATION_COLUMNS).is_some()
+}
+
+/// A short word of ASCII letters, digits, `_` and spaces, as a column name is.
+fn is_plain_name(cell: &str) -> bool {
+    !cell.is_empty()
+        && cell.len() <= 40
+        && cell
+            .chars()
+            .all(|c| c.is_ascii_alphanumeric() || c == '_' || c == ' ')
 }
 
 /// One number in metres, or why it is not one. In a `;` file a single decimal comma
