@@ -8,6 +8,7 @@ use std::process::ExitCode;
 
 use clap::{CommandFactory, Parser, Subcommand};
 use stackwake::commands::{self, CommandReport};
+use stackwake::input::names::terminal_safe;
 use stackwake::modal::ModalOptions;
 
 /// Vortex-shedding lock-in screening of tall reinforced-concrete chimneys (screening tool:
@@ -218,13 +219,17 @@ fn main() -> ExitCode {
     };
     match run(cli) {
         Ok(report) => {
-            print!("{}", report.stdout);
+            print!("{}", terminal_safe(&report.stdout));
             for w in &report.warnings {
-                eprintln!("warning: {w}");
+                eprintln!("warning: {}", terminal_safe(w));
             }
             if let Some(first) = report.files.first() {
                 if let Some(dir) = first.parent() {
-                    println!("wrote {} files to {}", report.files.len(), dir.display());
+                    println!(
+                        "wrote {} files to {}",
+                        report.files.len(),
+                        terminal_safe(&dir.display().to_string())
+                    );
                 }
             }
             ExitCode::from(if report.check_failed {
@@ -236,7 +241,7 @@ fn main() -> ExitCode {
             })
         }
         Err(e) => {
-            eprintln!("error: {}", error_text(&e));
+            eprintln!("error: {}", terminal_safe(&error_text(&e)));
             ExitCode::from(2)
         }
     }

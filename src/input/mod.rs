@@ -11,6 +11,7 @@ pub mod issue;
 pub mod keypath;
 pub mod limits;
 pub mod measured_csv;
+pub mod names;
 pub mod plausibility;
 pub mod raw;
 mod read;
@@ -307,6 +308,12 @@ fn parse_table_with(
 
     let csv = match &raw.shell.stations_csv {
         Some(name) if raw.shell.stations.is_none() => {
+            if let Some(issue) = names::check_stations_csv_name(name) {
+                return Err(InputError::Invalid {
+                    label,
+                    issues: vec![issue],
+                });
+            }
             let text = read_csv(name)?;
             match parse_stations_csv(&text, name) {
                 Ok(csv) => Some(csv),
@@ -331,7 +338,10 @@ fn parse_table_with(
         }
         _ => None,
     };
-    validate::validate(&raw, csv.as_ref()).map_err(|issues| InputError::Invalid { label, issues })
+    let mut case = validate::validate(&raw, csv.as_ref())
+        .map_err(|issues| InputError::Invalid { label, issues })?;
+    names::neutralise(&mut case);
+    Ok(case)
 }
 
 /// The built-in demo case (an invented 210 m flue stack).

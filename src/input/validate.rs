@@ -169,6 +169,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     }
     let mut c = Checker::default();
     c.issues.extend(super::limits::check_ranges(raw));
+    c.issues.extend(super::names::check_names(raw));
     let shell = check_shell(&mut c, raw, csv);
     let height_m = shell.as_ref().map(Shell::height_m);
 

@@ -1,0 +1,158 @@
+//! Errors through the binary name the user's own input and the rule: control characters in
+//! names, bidirectional controls kept visible, terminal-safe messages, bounds on heights,
+//! walls, masses and springs that would otherwise give nonsense or make the eigen-solver
+//! give up. Each row asserts the exit code and the message; robustness checks of our own
+//! error contract (`path = value: rule`, common practice for input validation), no outside
+//! engineering reference is involved.
+
+use assert_cmd::Command;
+
+/// A small valid case (invented numbers); each row edits one piece of it.
+const BASE: &str = r#"title = "Invented names-and-bounds base case"
+[shell]
+elastic_modulus_gpa = 32.0
+density_kg_m3 = 2500.0
+stations = [
+  { z_m = 0.0,   outer_diameter_m = 12.0, wall_m = 0.40 },
+  { z_m = 50.0,  outer_diameter_m = 10.0, wall_m = 0.30 },
+  { z_m = 100.0, outer_diameter_m = 8.0,  wall_m = 0.20 },
+]
+[[point_mass]]
+z_m = 90.0
+mass_kg = 10000.0
+label = "platform"
+[[stage]]
+name = "shell"
+lining = false
+[wind]
+reference_speed_m_s = 25.0
+"#;
+
+fn edit(from: &str, to: &str) -> String {
+    assert!(BASE.contains(from), "edit target not in BASE: {from}");
+    BASE.replacen(from, to, 1)
+}
+
+/// Runs `args` (the case file appended first as `case.toml`) in a fresh folder.
+fn run(case: &str, args: &[&str]) -> (i32, String, String, tempfile::TempDir) {
+    let dir = tempfile::tempdir().expect("temp dir");
+    std::fs::write(dir.path().join("case.toml"), case).expect("write case");
+    let out = Command::cargo_bin("stackwake")
+        .expect("binary")
+        .current_dir(dir.path())
+        .args(args)
+        .output()
+        .expect("run");
+    (
+        out.status.code().unwrap_or(-1),
+        String::from_utf8_lossy(&out.stdout).into_owned(),
+        String::from_utf8_lossy(&out.stderr).into_owned(),
+        dir,
+    )
+}
+
+fn refused(case: &str, args: &[&str], expected: &[&str]) {
+    let (code, _, stderr, dir) = run(case, args);
+    assert_eq!(code, 2, "stderr: {stderr}");
+    for e in expected {
+        assert!(stderr.contains(e), "expected {e:?} in: {stderr}");
+    }
+    assert!(!stderr.contains("internal error"), "{stderr}");
+    assert!(
+        !dir.path().join("out").exists(),
+        "an output folder was left"
+    );
+}
+
+#[test]
+fn a_title_with_a_control_character_is_refused() {
+    refused(
+        &edit(
+            "title = \"Invented names-and-bounds base case\"",
+            "title = \"bell\\u0007here\"",
+        ),
+        &["check", "case.toml", "--out", "out"],
+        &["title = \"bell\\u{7}here\": must not contain control characters (\\u{7} at character 5)"],
+    );
+}
+
+#[test]
+fn control_characters_in_stage_names_and_labels_are_refused() {
+    refused(
+        &edit("name = \"shell\"", "name = \"sh\\u001b[2Kell\""),
+        &["check", "case.toml", "--out", "out"],
+        &["stage[0].name = \"sh\\u{1b}[2Kell\": must not contain control characters"],
+    );
+    refused(
+        &edit("label = \"platform\"", "label = \"plat\\u0085form\""),
+        &["check", "case.toml", "--out", "out"],
+        &["point_mass[0].label", "\\u{85} at character 5"],
+    );
+    refused(
+        &format!("{BASE}[project]\njob = \"J\\u007f1\"\n"),
+        &["check", "case.toml", "--out", "out"],
+        &["project.job", "\\u{7f}"],
+    );
+}
+
+#[test]
+fn an_unknown_key_with_a_terminal_escape_does_not_reach_stderr_raw() {
+    let case = format!("{BASE}\"bad\\u001b[2Kkey\" = 1\n");
+    let (code, stdout, stderr, _dir) = run(&case, &["check", "case.toml", "--out", "out"]);
+    assert_eq!(code, 2, "stderr: {stderr}");
+    assert!(!stderr.contains('\u{1b}'), "raw ESC on stderr: {stderr:?}");
+    assert!(stderr.contains("bad\\u{1b}[2Kkey"), "{stderr}");
+    assert!(!stdout.contains("pass"), "{stdout}");
+}
+
+#[test]
+fn a_right_to_left_override_in_a_stage_name_is_shown_as_its_code() {
+    let case = edit("name = \"shell\"", "name = \"rev\\u202Eersed\"");
+    let (code, stdout, stderr, dir) = run(&case, &["check", "case.toml", "--out", "out"]);
+    assert!(code == 0 || code == 1 || code == 3, "stderr: {stderr}");
+    let out = dir.path().join("out");
+    let html = std::fs::read_to_string(out.join("report.html")).expect("report.html");
+    assert!(!html.contains('\u{202E}'), "raw U+202E in report.html");
+    assert!(
+        html.contains("rev\\u{202e}ersed"),
+        "stage name not in the note"
+    );
+    let mut svgs = 0;
+    for entry in std::fs::read_dir(&out).expect("out") {
+        let path = entry.expect("entry").path();
+        if path.extension().is_some_and(|e| e == "svg") {
+            svgs += 1;
+            let svg = std::fs::read_to_string(&path).expect("svg");
+            assert!(
+                !svg.contains('\u{202E}'),
+                "raw U+202E in {}",
+                path.display()
+            );
+        }
+    }
+    assert!(svgs > 0, "no SVG written");
+    assert!(!stderr.contains('\u{202E}') && !stdout.contains('\u{202E}'));
+    // A message that echoes the name (a remedy naming an unknown stage) shows the code too.
+    let bad = format!("{case}[remedy.tmd]\nmode = 1\nmass_ratio = 0.02\nstage = \"x\\u202Ey\"\n");
+    let (code, _, stderr, _dir) = run(&bad, &["check", "case.toml", "--out", "out"]);
+    assert_eq!(code, 2, "stderr: {stderr}");
+    assert!(
+        !stderr.contains('\u{202E}'),
+        "raw U+202E on stderr: {stderr:?}"
+    );
+    assert!(stderr.contains("x\\u{202e}y"), "{stderr}");
+}
+
+#[test]
+fn an_empty_stations_csv_names_the_key() {
+    let start = BASE.find("stations = [").expect("stations");
+    let end = BASE[start..].find("]\n").expect("end") + start + 2;
+    let case = format!("{}stations_csv = \"\"\n{}", &BASE[..start], &BASE[end..]);
+    refused(
+        &case,
+        &["check", "case.toml", "--out", "out"],
+        &["shell.stations_csv = \"\": must name a CSV file"],
+    );
+    let (_, _, stderr, _dir) = run(&case, &["check", "case.toml", "--out", "out"]);
+    assert!(!stderr.contains("directory"), "{stderr}");
+}
