@@ -273,7 +273,7 @@ pub fn wind_text_from(n: &mut Numbers) -> String {
     let mut t = String::from("[wind]\n");
     t += &format!("reference_speed_m_s = {:?}\n", n.log_range(0.1, 150.0));
     t += &format!("reference_height_m = {:?}\n", n.log_range(0.5, 300.0));
-    if n.byte() % 2 == 0 {
+    if n.byte().is_multiple_of(2) {
         t += &format!("profile = \"power\"\nexponent = {:?}\n", n.range(0.02, 0.7));
     } else {
         t += &format!(
@@ -284,7 +284,7 @@ pub fn wind_text_from(n: &mut Numbers) -> String {
     t += &format!("air_density_kg_m3 = {:?}\n", n.log_range(0.45, 2.2));
     t += &format!("kinematic_viscosity_m2_s = {:?}\n", n.log_range(1e-6, 1e-4));
     t += "[vortex]\n";
-    t += if n.byte() % 2 == 0 {
+    t += if n.byte().is_multiple_of(2) {
         "method = \"en1991-e1\"\n"
     } else {
         "method = \"en1991-e2\"\n"
