@@ -264,3 +264,131 @@ pub fn analysis(data: &[u8]) {
         }
     }
 }
+
+/// The `[wind]` and `[vortex]` sections of the `check` target, drawn over (and a little past)
+/// the ranges the validator accepts (src/input/limits.rs: air density 0.5-2 kg/m3, log
+/// decrement 1e-3 to < 1, design life up to 1000 years), both profiles and both Annex E
+/// approaches; values past a bound must be refused with an error, never reach a plot.
+pub fn wind_text_from(n: &mut Numbers) -> String {
+    let mut t = String::from("[wind]\n");
+    t += &format!("reference_speed_m_s = {:?}\n", n.log_range(0.1, 150.0));
+    t += &format!("reference_height_m = {:?}\n", n.log_range(0.5, 300.0));
+    if n.byte().is_multiple_of(2) {
+        t += &format!("profile = \"power\"\nexponent = {:?}\n", n.range(0.02, 0.7));
+    } else {
+        t += &format!(
+            "profile = \"log\"\nroughness_m = {:?}\n",
+            n.log_range(1e-4, 3.0)
+        );
+    }
+    t += &format!("air_density_kg_m3 = {:?}\n", n.log_range(0.45, 2.2));
+    t += &format!("kinematic_viscosity_m2_s = {:?}\n", n.log_range(1e-6, 1e-4));
+    t += "[vortex]\n";
+    t += if n.byte().is_multiple_of(2) {
+        "method = \"en1991-e1\"\n"
+    } else {
+        "method = \"en1991-e2\"\n"
+    };
+    if n.byte() % 2 == 1 {
+        t += &format!("strouhal = {:?}\n", n.range(0.05, 0.5));
+    }
+    t += &format!("log_decrement = {:?}\n", n.log_range(5e-4, 1.2));
+    t += &format!("modes = {}\n", n.count(1, 4));
+    t += &format!("design_life_years = {:?}\n", n.log_range(0.01, 1200.0));
+    t
+}
+
+/// Bytes 0..32 give the wind and vortex values, the rest the geometry of
+/// [`case_text_from`] (whose fixed `[wind]` line is replaced).
+pub fn check_case_text_from(data: &[u8]) -> String {
+    const WIND_BYTES: usize = 32;
+    let (wind, geometry) = data.split_at(data.len().min(WIND_BYTES));
+    let (text, _) = case_text_from(geometry);
+    let text = text.replace("[wind]\nreference_speed_m_s = 25.0\n", "");
+    text + &wind_text_from(&mut Numbers::new(wind))
+}
+
+/// A fresh, empty folder for one `check` run of the fuzz target.
+fn scratch_folder() -> std::path::PathBuf {
+    use std::sync::atomic::{AtomicUsize, Ordering};
+    static RUN: AtomicUsize = AtomicUsize::new(0);
+    let dir = std::env::temp_dir().join(format!(
+        "stackwake-fuzz-check-{}-{}",
+        std::process::id(),
+        RUN.fetch_add(1, Ordering::Relaxed)
+    ));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).expect("create the scratch folder");
+    dir
+}
+
+/// Every file `check` wrote can be read back: CSVs parse and every cell that parses as a
+/// number is finite, SVGs are well-formed XML, `summary.json` is JSON, the note is not empty.
+pub fn assert_outputs_readable(out: &std::path::Path, text: &str) {
+    let mut seen = 0;
+    for entry in std::fs::read_dir(out).expect("list the output folder") {
+        let path = entry.expect("directory entry").path();
+        let name = path.file_name().unwrap().to_string_lossy().into_owned();
+        if name.starts_with('.') {
+            continue;
+        }
+        seen += 1;
+        let bytes = std::fs::read(&path).expect("read an output file");
+        let body = String::from_utf8(bytes).unwrap_or_else(|_| panic!("{name} is not UTF-8"));
+        if name.ends_with(".csv") {
+            let mut reader = csv::ReaderBuilder::new()
+                .has_headers(true)
+                .from_reader(body.as_bytes());
+            for record in reader.records() {
+                let record = record.unwrap_or_else(|e| panic!("{name}: {e}\n{text}"));
+                for cell in record.iter() {
+                    if let Ok(v) = cell.trim().parse::<f64>() {
+                        assert!(v.is_finite(), "{name}: non-finite cell {cell:?}\n{text}");
+                    }
+                }
+            }
+        } else if name.ends_with(".svg") {
+            roxmltree::Document::parse(&body)
+                .unwrap_or_else(|e| panic!("{name} is not well-formed: {e}\n{text}"));
+        } else if name.ends_with(".json") {
+            serde_json::from_str::<serde_json::Value>(&body)
+                .unwrap_or_else(|e| panic!("{name} is not JSON: {e}\n{text}"));
+        } else {
+            assert!(!body.is_empty(), "{name} is empty");
+        }
+    }
+    assert!(seen > 0, "check succeeded but wrote nothing\n{text}");
+}
+
+/// Bytes -> case file (wind and vortex over their accepted ranges, geometry as in
+/// [`analysis`]) -> `check` end to end, plots and writers included, into a scratch folder.
+/// Either every written file reads back with finite numbers, or an error with a message and
+/// nothing but the case file left behind. Returns whether `check` wrote its outputs.
+pub fn check(data: &[u8]) -> bool {
+    let text = check_case_text_from(data);
+    let dir = scratch_folder();
+    let case_path = dir.join("case.toml");
+    std::fs::write(&case_path, &text).expect("write the case file");
+    let out = dir.join("out");
+    let options = stackwake::commands::check::CheckOptions { min_elements: None };
+    let wrote = match stackwake::commands::check::run(Some(&case_path), &out, options) {
+        Ok(_) => {
+            assert_outputs_readable(&out, &text);
+            true
+        }
+        Err(e) => {
+            assert!(!e.to_string().is_empty(), "empty error message");
+            let left: Vec<_> = std::fs::read_dir(&out)
+                .map(|r| r.filter_map(|e| e.ok()).map(|e| e.file_name()).collect())
+                .unwrap_or_default();
+            assert!(
+                left.iter()
+                    .all(|n| n.to_string_lossy().starts_with(".stackwake")),
+                "a failed check left outputs {left:?}: {e}\n{text}"
+            );
+            false
+        }
+    };
+    let _ = std::fs::remove_dir_all(&dir);
+    wrote
+}

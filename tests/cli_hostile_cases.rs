@@ -170,7 +170,7 @@ fn rows() -> Vec<Row> {
             b"\xEF\xBB\xBFz_m,outer_diameter_m,wall_m\r\n0,12,0.4\r\n\r\n50,10,-0.3\r\n100,8,0.2\r\n".to_vec(),
             "stations.csv line 4, column wall_m = -0.3: must be > 0"),
         Row { name: "CSV file missing", case: base_with_csv().into_bytes(), csv: None,
-            expected: "{dir}/case.toml: cannot read the stations CSV {dir}/stations.csv: No such file or directory (os error 2)".into() },
+            expected: "{dir}/case.toml: cannot read the stations CSV {dir}/stations.csv (stations_csv = \"stations.csv\", relative to the case file's folder): No such file or directory (os error 2)".into() },
     ]
 }
 
@@ -293,7 +293,10 @@ fn oversized_stations_csv_is_refused() {
     let (code, stderr, _dir) = run_row(base_with_csv().as_bytes(), Some(csv.as_bytes()));
     assert_eq!(code, Some(2), "{stderr}");
     assert!(
-        stderr.contains("stations.csv is 11.0 MB; a stations CSV is at most 10 MB"),
+        stderr.contains(
+            "stations.csv (stations_csv = \"stations.csv\", relative to the case file's folder) \
+             is 11.0 MB; a stations CSV is at most 10 MB"
+        ),
         "{stderr}"
     );
 }

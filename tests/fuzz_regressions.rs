@@ -1,4 +1,4 @@
-//! Replays the minimised fuzz corpora (tests/fuzz_regressions/{case_loader,analysis}/)
+//! Replays the minimised fuzz corpora (tests/fuzz_regressions/{case_loader,analysis,check}/)
 //! through the same harness as the cargo-fuzz targets (fuzz/harness.rs), without libFuzzer,
 //! so every input the fuzzer found interesting stays a regression test in plain
 //! `cargo test`. Robustness checks only: no outside reference is involved.
@@ -40,6 +40,39 @@ fn case_loader_corpus_never_panics() {
 fn analysis_corpus_never_panics_and_keeps_invariants() {
     let n = replay("analysis", harness::analysis);
     assert!(n >= 20, "analysis corpus has only {n} inputs");
+}
+
+#[test]
+fn check_corpus_never_panics_and_writes_readable_files() {
+    let n = replay("check", |d| {
+        harness::check(d);
+    });
+    assert!(n >= 8, "check corpus has only {n} inputs");
+}
+
+/// The `check` mapping must reach the writers, not only the validator: some seeds of the
+/// replay folder run `check` to the end (exit 0 or 1) and others are refused.
+#[test]
+fn check_seeds_reach_the_writers() {
+    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fuzz_regressions/check");
+    let mut accepted = 0;
+    let mut wrote = 0;
+    let mut total = 0;
+    for entry in std::fs::read_dir(&dir).unwrap() {
+        let data = std::fs::read(entry.unwrap().path()).unwrap();
+        let text = harness::check_case_text_from(&data);
+        total += 1;
+        if stackwake::input::parse_case_with_csv(&text, "seed.toml", None).is_ok() {
+            accepted += 1;
+        }
+        if harness::check(&data) {
+            wrote += 1;
+        }
+    }
+    assert!(
+        accepted < total && wrote >= 2,
+        "{accepted} of {total} seeds accepted, {wrote} wrote their outputs"
+    );
 }
 
 #[test]
