@@ -156,3 +156,72 @@ fn an_empty_stations_csv_names_the_key() {
     let (_, _, stderr, _dir) = run(&case, &["check", "case.toml", "--out", "out"]);
     assert!(!stderr.contains("directory"), "{stderr}");
 }
+
+#[test]
+fn a_stage_of_a_nanometre_is_refused_with_the_bound() {
+    refused(
+        &edit("lining = false", "lining = false\ntop_z_m = 1e-9"),
+        &["check", "case.toml", "--out", "out"],
+        &["stage[0].top_z_m = 1e-9: must be at least 1 m"],
+    );
+}
+
+#[test]
+fn a_stack_of_a_thousand_kilometres_is_refused_with_the_bound() {
+    let case = edit("z_m = 100.0", "z_m = 1000000.0").replace("z_m = 90.0", "z_m = 50.0");
+    refused(
+        &case,
+        &["check", "case.toml", "--out", "out"],
+        &["shell.stations[2].z_m = 1e6: the shell's height must be at most 1000 m"],
+    );
+}
+
+#[test]
+fn inputs_that_made_the_solver_give_up_are_refused_by_name() {
+    let args = ["check", "case.toml", "--out", "out"];
+    refused(
+        &edit("wall_m = 0.20", "wall_m = 1e-9"),
+        &args,
+        &["shell.stations[2].wall_m = 1e-9: the wall must be at least 0.01 m"],
+    );
+    refused(
+        &edit("mass_kg = 10000.0", "mass_kg = 1e20"),
+        &args,
+        &["point_mass[0].mass_kg = 1e20: must be at most 10 times the shell's own mass"],
+    );
+    refused(
+        &edit("lining = false", "lining = false\nstiffness_factor = 1e-12"),
+        &args,
+        &["stage[0].stiffness_factor = 1e-12: must be between 0.05 and 2"],
+    );
+    refused(
+        &format!("{BASE}[base]\nrotational_stiffness_gnm_per_rad = 1e-30\n"),
+        &args,
+        &[
+            "base.rotational_stiffness_gnm_per_rad = 1e-30: is",
+            "must be between 0.01 and",
+        ],
+    );
+    refused(
+        &format!("{BASE}[base]\nlateral_stiffness_mn_per_m = 1e30\n"),
+        &args,
+        &["base.lateral_stiffness_mn_per_m = 1e30: is", "a rigid base"],
+    );
+    for (case, _) in [
+        (edit("wall_m = 0.20", "wall_m = 1e-9"), "wall"),
+        (edit("mass_kg = 10000.0", "mass_kg = 1e20"), "mass"),
+    ] {
+        let (_, _, stderr, _dir) = run(&case, &args);
+        assert!(!stderr.contains("lost its basis"), "{stderr}");
+    }
+}
+
+#[test]
+fn ordinary_springs_and_factors_still_run() {
+    let case = format!(
+        "{}[base]\nrotational_stiffness_gnm_per_rad = 1500.0\nlateral_stiffness_mn_per_m = 8000.0\n",
+        edit("lining = false", "lining = false\nstiffness_factor = 0.7\ntop_z_m = 50.0")
+    );
+    let (code, _, stderr, _dir) = run(&case, &["check", "case.toml", "--out", "out"]);
+    assert!(code == 0 || code == 1 || code == 3, "stderr: {stderr}");
+}

@@ -12,6 +12,7 @@ pub mod keypath;
 pub mod limits;
 pub mod measured_csv;
 pub mod names;
+pub mod physical;
 pub mod plausibility;
 pub mod raw;
 mod read;

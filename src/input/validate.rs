@@ -172,6 +172,9 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     c.issues.extend(super::names::check_names(raw));
     let shell = check_shell(&mut c, raw, csv);
     let height_m = shell.as_ref().map(Shell::height_m);
+    if let Some(s) = &shell {
+        c.issues.extend(super::physical::check(raw, s, csv));
+    }
 
     let linings = raw
         .lining
