@@ -182,7 +182,7 @@ fn inputs_that_made_the_solver_give_up_are_refused_by_name() {
     refused(
         &edit("wall_m = 0.20", "wall_m = 1e-9"),
         &args,
-        &["shell.stations[2].wall_m = 1e-9: the wall must be at least 0.01 m"],
+        &["shell.stations[2].wall_m = 1e-9: the wall must be at least 0.008 m"],
     );
     refused(
         &edit("mass_kg = 10000.0", "mass_kg = 1e20"),
@@ -199,7 +199,7 @@ fn inputs_that_made_the_solver_give_up_are_refused_by_name() {
         &args,
         &[
             "base.rotational_stiffness_gnm_per_rad = 1e-30: is",
-            "must be between 0.01 and",
+            "must be between 1e-6 and 1e14 times",
         ],
     );
     refused(
@@ -224,4 +224,96 @@ fn ordinary_springs_and_factors_still_run() {
     );
     let (code, _, stderr, _dir) = run(&case, &["check", "case.toml", "--out", "out"]);
     assert!(code == 0 || code == 1 || code == 3, "stderr: {stderr}");
+}
+
+#[test]
+fn a_dangling_symlink_as_out_is_named_as_a_link() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    std::fs::write(dir.path().join("case.toml"), BASE).expect("write case");
+    std::os::unix::fs::symlink("/nonexistent/stackwake-target", dir.path().join("out"))
+        .expect("symlink");
+    let out = Command::cargo_bin("stackwake")
+        .expect("binary")
+        .current_dir(dir.path())
+        .args(["check", "case.toml", "--out", "out"])
+        .output()
+        .expect("run");
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(2), "{stderr}");
+    assert!(
+        stderr.contains(
+            "out is a symbolic link to /nonexistent/stackwake-target, which does not exist"
+        ),
+        "{stderr}"
+    );
+    assert!(!stderr.contains("File exists"), "{stderr}");
+    // The link is left as it was.
+    assert!(std::fs::symlink_metadata(dir.path().join("out"))
+        .expect("link")
+        .file_type()
+        .is_symlink());
+}
+
+#[test]
+fn new_on_a_folder_says_it_is_a_folder_with_or_without_force() {
+    for force in [false, true] {
+        let dir = tempfile::tempdir().expect("temp dir");
+        std::fs::create_dir(dir.path().join("job")).expect("mkdir");
+        let mut args = vec!["new", "job"];
+        if force {
+            args.push("--force");
+        }
+        let out = Command::cargo_bin("stackwake")
+            .expect("binary")
+            .current_dir(dir.path())
+            .args(&args)
+            .output()
+            .expect("run");
+        let stderr = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(2), "{stderr}");
+        assert!(
+            stderr.contains("FILE = job: is a folder; `new` writes a case file: give a file name, e.g. job/case.toml"),
+            "{stderr}"
+        );
+        assert!(!stderr.contains("not a folder"), "{stderr}");
+        assert_eq!(
+            std::fs::read_dir(dir.path().join("job"))
+                .expect("dir")
+                .count(),
+            0
+        );
+    }
+}
+
+/// A length scale that makes the generated model's point masses underflow is refused as
+/// the option the user set, not as a key of the generated model case.
+#[test]
+fn scale_blames_the_length_scale_the_user_gave() {
+    let case = format!("{BASE}[model]\nelastic_modulus_gpa = 3.0\ndensity_kg_m3 = 1200.0\n");
+    let (code, _, stderr, dir) = run(
+        &case,
+        &[
+            "scale",
+            "case.toml",
+            "--length-scale",
+            "1e120",
+            "--out",
+            "out",
+        ],
+    );
+    assert_eq!(code, 2, "{stderr}");
+    assert!(
+        stderr.contains("--length-scale = 1e120: must be between 1 and 10000"),
+        "{stderr}"
+    );
+    assert!(!stderr.contains("point_mass[0]"), "{stderr}");
+    assert!(!dir.path().join("out").exists());
+    let in_file = format!(
+        "{BASE}[model]\nelastic_modulus_gpa = 3.0\ndensity_kg_m3 = 1200.0\nlength_scale = 0.5\n"
+    );
+    refused(
+        &in_file,
+        &["scale", "case.toml", "--out", "out"],
+        &["model.length_scale = 0.5: must be between 1 and 10000"],
+    );
 }

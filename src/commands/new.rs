@@ -18,18 +18,23 @@ pub const DEFAULT_FILE: &str = "case.toml";
 
 /// Writes the starter case to `path`; refuses to replace an existing file unless `force`.
 pub fn run(path: &Path, force: bool) -> Result<CommandReport, Error> {
+    // A folder is never replaced, with or without --force: `new` writes one case file.
+    if path.is_dir() {
+        return Err(Error::Usage {
+            option: "FILE".into(),
+            value: path.display().to_string(),
+            rule: format!(
+                "is a folder; `new` writes a case file: give a file name, e.g. {}",
+                path.join(DEFAULT_FILE).display()
+            ),
+        });
+    }
     if path.exists() && !force {
         return Err(Error::Usage {
             option: "FILE".into(),
             value: path.display().to_string(),
             rule: "already exists; choose another name or pass --force to replace it".into(),
         });
-    }
-    if path.is_dir() {
-        return Err(ReportError::NotAFolder {
-            path: path.to_path_buf(),
-        }
-        .into());
     }
     let io = |source| ReportError::Write {
         path: path.to_path_buf(),

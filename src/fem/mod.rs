@@ -40,13 +40,13 @@ pub enum SolverError {
     #[error("{modes} modes requested but the mesh has only {dofs} free degrees of freedom; use more elements")]
     TooFewDofs { modes: usize, dofs: usize },
     /// Subspace iteration did not converge.
-    #[error("eigen-solver did not converge in {iterations} iterations")]
+    #[error("eigen-solver did not converge in {iterations} iterations; the inputs that do this are extreme ratios: the thinnest shell.stations wall_m against its diameter, a point_mass mass_kg far above the shell's mass, base springs far softer or stiffer than the shell, a small stage stiffness_factor")]
     NoConvergence { iterations: usize },
     /// The iteration basis became linearly dependent (Rayleigh-Ritz mass not positive).
-    #[error("eigen-solver lost its basis (projected mass matrix not positive definite); the model may be degenerate")]
+    #[error("eigen-solver lost its basis (projected mass matrix not positive definite): masses or stiffnesses span too many decades; the inputs that do this are extreme ratios: the thinnest shell.stations wall_m against its diameter, a point_mass mass_kg far above the shell's mass, base springs far softer or stiffer than the shell, a small stage stiffness_factor")]
     LostBasis,
     /// A non-positive or non-finite eigenvalue appeared.
-    #[error("eigen-solver found a non-positive or non-finite eigenvalue at iteration {iteration}; check masses and stiffnesses")]
+    #[error("eigen-solver found a non-positive or non-finite eigenvalue at iteration {iteration}; the inputs that do this are extreme ratios: the thinnest shell.stations wall_m against its diameter, a point_mass mass_kg far above the shell's mass, base springs far softer or stiffer than the shell, a small stage stiffness_factor")]
     NotPositive { iteration: usize },
     /// The Sturm count disagrees with the number of modes found.
     #[error("completeness check failed: {counted} eigenvalues lie below the shift {shift:.6e} (rad/s)^2 but {expected} modes were found; a mode may have been skipped")]

@@ -16,16 +16,19 @@ use crate::case::Shell;
 /// Tallest shell accepted, m: the tallest structures ever built are under 1 km and the
 /// tallest chimneys about 420 m (from memory).
 pub const MAX_HEIGHT_M: f64 = 1000.0;
-/// Shortest shell or stage accepted, m: below it the shell is a footing, not a cantilever
-/// whose modes vortex shedding could excite (common practice).
-pub const MIN_HEIGHT_M: f64 = 1.0;
+/// Shortest shell or stage accepted, m. Absolute, and small, because `scale` runs its
+/// wind-tunnel models (tens of cm to a few m) through the same rules; a 1 cm shell is
+/// smaller than any aeroelastic model of a stack (common practice). Prototype stages are
+/// held by the relative bound [`MIN_STAGE_FRACTION`] as well.
+pub const MIN_HEIGHT_M: f64 = 0.01;
 /// A stage's top must also reach this fraction of the complete shell's height: a stage of
 /// under 1 % of the stack is a foundation ring (common practice).
 pub const MIN_STAGE_FRACTION: f64 = 0.01;
-/// Thinnest wall, m: 10 mm is far thinner than a cast reinforced-concrete shell (RC chimney
-/// walls are rarely under 0.15 m; common practice) and keeps the section properties of the
-/// thin ring well conditioned.
-pub const MIN_WALL_M: f64 = 0.01;
+/// Thinnest wall, m: 0.1 mm is thinner than any shell that can be cast or made as a
+/// wind-tunnel model (RC chimney walls are rarely under 0.15 m, aeroelastic model walls
+/// about 0.5-5 mm; common practice). The relative bound [`MAX_DIAMETER_PER_WALL`] keeps the
+/// thin ring well conditioned at every size.
+pub const MIN_WALL_M: f64 = 1e-4;
 /// Largest diameter-to-wall ratio: beyond 1000 the shell is a membrane that ovalises
 /// rather than bending as a beam (common practice); the beam model no longer applies.
 pub const MAX_DIAMETER_PER_WALL: f64 = 1000.0;
@@ -38,13 +41,15 @@ pub const MAX_POINT_MASS_PER_SHELL_MASS: f64 = 10.0;
 /// no longer a cracking allowance.
 pub const STIFFNESS_FACTOR_RANGE: (f64, f64) = (0.05, 2.0);
 /// Foundation spring range, as the spring over the shell's own stiffness at the base
-/// (k_rot H / EI, k_lat H^3 / (3 EI)): softer than 1/100 the stack is a rigid body on the
-/// spring and the solver loses its basis; stiffer than 1e6 the base is rigid and the key
-/// should be left out (common practice).
-pub const SPRING_RATIO_RANGE: (f64, f64) = (1e-2, 1e6);
+/// (k_rot H / EI, k_lat H^3 / (3 EI)). Wide on purpose: a spring in the wrong unit (MN/m
+/// for GN/m, N m/rad for GN m/rad) still solves and gets a plausibility warning; only
+/// beyond 1e-6 (the stack is a rigid body on the spring, the solver loses its basis) and
+/// 1e14 (stiffer than round-off can tell from a rigid base) is it refused. Bounds found by
+/// running the solver across the range on a 100 m shell (our own measurement).
+pub const SPRING_RATIO_RANGE: (f64, f64) = (1e-6, 1e14);
 
 /// A value in a form the user recognises (exponent form for huge or tiny ones).
-fn shown(v: f64) -> String {
+pub(crate) fn shown(v: f64) -> String {
     let a = v.abs();
     if a != 0.0 && !(1e-4..1e6).contains(&a) {
         format!("{v:e}")
@@ -105,8 +110,8 @@ pub fn check(raw: &RawCase, shell: &Shell, csv: Option<&CsvStations>) -> Vec<Val
             place(top, "z_m"),
             h,
             format!(
-                "the shell's height must be at least {MIN_HEIGHT_M} m (a shorter shell is a \
-                 footing, not a stack that vortex shedding can excite)"
+                "the shell's height must be at least {MIN_HEIGHT_M} m (smaller than any \
+                 wind-tunnel model of a stack); is the height in km?"
             ),
         );
     }
@@ -118,8 +123,8 @@ pub fn check(raw: &RawCase, shell: &Shell, csv: Option<&CsvStations>) -> Vec<Val
                 place(i, "wall_m"),
                 st.wall_m,
                 format!(
-                    "the wall must be at least {} m here (at least {MIN_WALL_M} m, far thinner \
-                     than any cast concrete shell, and at least the outer diameter / \
+                    "the wall must be at least {} m here (at least {MIN_WALL_M} m, thinner \
+                     than any shell that can be cast or modelled, and at least the outer diameter / \
                      {MAX_DIAMETER_PER_WALL}: a thinner shell is a membrane, not a beam)",
                     shown(min_wall)
                 ),
@@ -204,11 +209,12 @@ pub fn check(raw: &RawCase, shell: &Shell, csv: Option<&CsvStations>) -> Vec<Val
                     v,
                     format!(
                         "is {} times the shell's own stiffness at the base ({own_name} = {} in \
-                         the same unit); it must be between {slo} and {} times: a softer \
+                         the same unit); it must be between {} and {} times: a softer \
                          spring makes the stack a rigid body and the eigen-problem \
                          ill-conditioned, a stiffer one is a rigid base (leave the key out)",
                         shown(ratio),
                         shown(own / to_si),
+                        shown(slo),
                         shown(shi)
                     ),
                 );

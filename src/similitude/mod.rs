@@ -39,9 +39,9 @@ pub enum SimilitudeError {
     /// Neither a length scale nor a tunnel size was given.
     #[error("model.length_scale: missing; give length_scale (prototype / model), or tunnel_width_m and tunnel_height_m so that one can be proposed, or --length-scale")]
     NoLengthScale,
-    /// The command-line length scale is not a positive number.
-    #[error("--length-scale = {value}: must be a finite number > 0")]
-    BadLengthScale { value: f64 },
+    /// The command-line length scale is outside [`LENGTH_SCALE_RANGE`].
+    #[error("--length-scale = {value}: must be between 1 and 10000 (prototype / model): a model larger than the prototype, or under 1/10000 of it, cannot be built and tested in a boundary-layer tunnel (common practice)")]
+    BadLengthScale { value: String },
     /// The model would block more than the whole test section.
     #[error("blockage {percent:.0} %: the model's frontal area at k_l = {length_scale} is larger than the tunnel's test section (model.tunnel_width_m x model.tunnel_height_m); the length scale must be at least {min_length_scale:.1} for model.max_blockage (is the scale or the tunnel size in the wrong unit?)")]
     BlockageOverFull {
@@ -89,13 +89,21 @@ pub struct ScaleDesign {
     pub warnings: Vec<String>,
 }
 
+/// Accepted length scales k_l = prototype / model. Aeroelastic chimney models are built at
+/// about 1:50 to 1:1000 (common practice); below 1 the "model" is larger than the stack and
+/// above 10000 a 300 m stack becomes a 30 mm model whose point masses and springs (k_l^3 and
+/// more) underflow into values no workshop can make.
+pub const LENGTH_SCALE_RANGE: (f64, f64) = (1.0, 10_000.0);
+
 /// Chooses k_l and builds the factors and the model case of `case` (which must have a
 /// `[model]` table). `length_scale` overrides the case file's.
 pub fn design(case: &Case, length_scale: Option<f64>) -> Result<ScaleDesign, SimilitudeError> {
     let spec = case.model.ok_or(SimilitudeError::NoModelTable)?;
     if let Some(v) = length_scale {
-        if !(v.is_finite() && v > 0.0) {
-            return Err(SimilitudeError::BadLengthScale { value: v });
+        if !(v.is_finite() && (LENGTH_SCALE_RANGE.0..=LENGTH_SCALE_RANGE.1).contains(&v)) {
+            return Err(SimilitudeError::BadLengthScale {
+                value: crate::input::physical::shown(v),
+            });
         }
     }
     let tunnel = match (spec.tunnel_width_m, spec.tunnel_height_m) {

@@ -6,7 +6,18 @@ use super::*;
 
 pub(super) fn check_model(c: &mut Checker, m: &RawModel) -> Option<ModelSpec> {
     let before = c.issues.len();
-    let length_scale = c.optional_positive("model.length_scale", m.length_scale);
+    let (lo, hi) = crate::similitude::LENGTH_SCALE_RANGE;
+    let length_scale = m.length_scale.filter(|&k| {
+        c.finite("model.length_scale", k)
+            && ((lo..=hi).contains(&k)
+                || c.fail(
+                    "model.length_scale",
+                    k,
+                    "must be between 1 and 10000 (prototype / model): a model larger than the \
+                     prototype, or under 1/10000 of it, cannot be built and tested in a \
+                     boundary-layer tunnel (common practice)",
+                ))
+    });
     c.positive("model.elastic_modulus_gpa", m.elastic_modulus_gpa);
     c.positive("model.density_kg_m3", m.density_kg_m3);
     let poisson_ratio = m.poisson_ratio.unwrap_or(DEFAULT_MODEL_POISSON_RATIO);

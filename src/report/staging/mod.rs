@@ -102,7 +102,7 @@ impl Staging {
         std::fs::create_dir_all(target).map_err(|e| ReportError::CannotCreate {
             path: target.to_path_buf(),
             reason: blocking_ancestor(target)
-                .map(|a| format!("{} is a file, not a folder", a.display()))
+                .map(|a| blocker_reason(&a))
                 .unwrap_or_else(|| e.to_string()),
         })?;
         let give_up = |e: ReportError| {
@@ -314,6 +314,29 @@ fn blocking_ancestor(path: &Path) -> Option<PathBuf> {
         .find(|a| std::fs::symlink_metadata(a).is_ok())
         .filter(|a| !a.is_dir())
         .map(Path::to_path_buf)
+}
+
+/// Why `blocker` (an existing path that is not a folder) stops a folder being made there:
+/// a dangling symbolic link reads as "File exists" from the OS, which names neither cause.
+fn blocker_reason(blocker: &Path) -> String {
+    let shown = blocker.display();
+    match std::fs::symlink_metadata(blocker) {
+        Ok(m) if m.file_type().is_symlink() => {
+            let to = std::fs::read_link(blocker)
+                .map(|t| t.display().to_string())
+                .unwrap_or_else(|_| "an unreadable target".into());
+            if blocker.exists() {
+                format!("{shown} is a symbolic link to {to}, which is not a folder")
+            } else {
+                format!(
+                    "{shown} is a symbolic link to {to}, which does not exist; \
+                     remove the link or give another --out"
+                )
+            }
+        }
+        Ok(m) if m.is_file() => format!("{shown} is a file, not a folder"),
+        _ => format!("{shown} exists and is not a folder"),
+    }
 }
 
 /// A file moved into the target folder, with the original it replaced (if any); or, with
