@@ -488,7 +488,7 @@ fn criteria_and_model_rules() {
     );
     fails_with(
         &m("length_scale = 0.0"),
-        "model.length_scale = 0: must be > 0",
+        "model.length_scale = 0: must be between 1 and 10000",
     );
     fails_with(
         &m("poisson_ratio = 0.5"),
