@@ -488,7 +488,7 @@ fn criteria_and_model_rules() {
     );
     fails_with(
         &m("length_scale = 0.0"),
-        "model.length_scale = 0: must be between 1 and 10000",
+        "model.length_scale = 0: must be between 1 and 10000 (prototype / model): a model larger than the prototype, or under 1/10000 of it, cannot be built and tested in a boundary-layer tunnel (common practice)",
     );
     fails_with(
         &m("poisson_ratio = 0.5"),
