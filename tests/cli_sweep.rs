@@ -76,7 +76,7 @@ fn two_key_grid_writes_csv_and_map() {
     let mut lines = csv.lines();
     assert_eq!(
         lines.next().unwrap(),
-        "shell.elastic_modulus_gpa,shell.stations[0].wall_m,stage,mode,frequency_hz,critical_speed_m_s,speed_ratio,scruton,tip_amplitude_m,max_stress_pa,required_log_decrement,verdict"
+        "shell.elastic_modulus_gpa,shell.stations[0].wall_m,stage,mode,frequency_hz,critical_speed_m_s,speed_ratio,scruton,tip_amplitude_m,max_stress_pa,required_log_decrement,damping_remedy,verdict"
     );
     let rows: Vec<&str> = lines.collect();
     // Two valid variants x 3 stages x 3 modes + two invalid variants (wall 12 m > D / 2).
@@ -255,4 +255,35 @@ fn required_log_decrement_is_the_smallest_that_passes() {
             r.mode
         );
     }
+}
+
+/// A criterion no damping can meet (a tip amplitude of a nanometre per metre of diameter)
+/// gives an empty `required_log_decrement` and says so in `damping_remedy`: no `inf`
+/// reaches sweep.csv (bounded-input issue, item 1: no non-finite number in any CSV).
+#[test]
+fn a_criterion_beyond_any_damping_writes_no_infinity() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = stackwake::input::DEMO_CASE_TOML.replace(
+        "tip_amplitude_per_diameter = 0.05",
+        "tip_amplitude_per_diameter = 1e-9",
+    );
+    assert!(text.contains("1e-9"));
+    let case = dir.path().join("tight.toml");
+    std::fs::write(&case, text).unwrap();
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .args(["sweep"])
+        .arg(&case)
+        .args(["--vary", "vortex.log_decrement=0.02:0.04:2", "--out"])
+        .arg(&out)
+        .assert()
+        .success();
+    let csv = std::fs::read_to_string(out.join("sweep.csv")).unwrap();
+    assert!(!csv.to_lowercase().contains("inf,"), "{csv}");
+    assert!(!csv.contains("NaN"), "{csv}");
+    assert!(
+        csv.contains(",beyond log decrement 4: damping alone cannot,"),
+        "{csv}"
+    );
 }

@@ -112,7 +112,10 @@ pub fn run_variant(
             VariantOutcome::Invalid(msg)
         }
         Ok(case) => match sweep::analyse_variant(&case) {
-            Ok(rows) => VariantOutcome::Rows(rows),
+            Ok(rows) => match first_non_finite(&rows) {
+                None => VariantOutcome::Rows(rows),
+                Some(msg) => VariantOutcome::Failed(msg),
+            },
             Err(e) => VariantOutcome::Failed(e.to_string()),
         },
     };
@@ -262,4 +265,62 @@ pub fn run(case_path: &Path, vary_args: &[String], out: &Path) -> Result<Command
         not_judged: false,
         files,
     })
+}
+
+/// The first non-finite number of a variant's rows, as a message: such a variant is a
+/// failed one (its verdict cell says why), so no `inf` or `NaN` reaches sweep.csv.
+fn first_non_finite(rows: &[sweep::ModeRow]) -> Option<String> {
+    rows.iter().find_map(|r| {
+        [
+            ("frequency_hz", Some(r.frequency_hz)),
+            ("critical_speed_m_s", r.critical_speed_m_s),
+            ("speed_ratio", r.speed_ratio),
+            ("scruton", r.scruton),
+            ("tip_amplitude_m", r.tip_amplitude_m),
+            ("max_stress_pa", r.max_stress_pa),
+            ("required_log_decrement", r.required_log_decrement),
+        ]
+        .into_iter()
+        .find_map(|(name, v)| v.filter(|x| !x.is_finite()).map(|x| (name, x)))
+        .map(|(name, x)| {
+            format!(
+                "stage `{}` mode {}: {name} = {x} is not finite; this variant's grid values \
+                 drive it outside what the analysis can compute",
+                r.stage, r.mode
+            )
+        })
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::sweep::{DampingRemedy, ModeRow};
+
+    fn row(tip_amplitude_m: Option<f64>) -> ModeRow {
+        ModeRow {
+            stage: "lined".into(),
+            mode: 2,
+            frequency_hz: 0.5,
+            critical_speed_m_s: Some(20.0),
+            speed_ratio: Some(0.8),
+            scruton: Some(9.0),
+            tip_amplitude_m,
+            max_stress_pa: Some(1e6),
+            required_log_decrement: None,
+            damping_remedy: DampingRemedy::NotNeeded,
+            verdict: crate::wind::Verdict::NotJudged,
+        }
+    }
+
+    #[test]
+    fn a_non_finite_row_fails_its_variant_naming_stage_mode_and_quantity() {
+        assert_eq!(first_non_finite(&[row(Some(0.1)), row(None)]), None);
+        let msg = first_non_finite(&[row(Some(0.1)), row(Some(f64::INFINITY))]).unwrap();
+        assert!(
+            msg.starts_with("stage `lined` mode 2: tip_amplitude_m = inf is not finite"),
+            "{msg}"
+        );
+        assert!(first_non_finite(&[row(Some(f64::NAN))]).is_some());
+    }
 }

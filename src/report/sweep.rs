@@ -3,9 +3,10 @@
 //! With more than two swept keys the map says, under its title, that each cell is the worst
 //! case over the keys it does not show.
 //!
-//! `required_log_decrement` in sweep.csv: empty when the mode needs no more damping (within
-//! the criteria, screened out or not judged), `inf` when no structural log decrement up to
-//! 4 meets the criteria.
+//! `required_log_decrement` in sweep.csv: the smallest structural log decrement that meets
+//! the criteria, empty when none is needed or none up to 4 suffices; `damping_remedy` says
+//! which (`not needed`, `sized`, `beyond log decrement 4: damping alone cannot`). No
+//! non-finite number is written.
 //!
 //! The map is hand-written SVG that reads in greyscale: each class has its own fill AND
 //! pattern (hatching for `exceeds`, cross-hatching for `invalid`), and cells large enough
@@ -42,6 +43,7 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
         "tip_amplitude_m",
         "max_stress_pa",
         "required_log_decrement",
+        "damping_remedy",
         "verdict",
     ] {
         header.push(h.to_string());
@@ -63,6 +65,7 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
                         r.tip_amplitude_m.map(num).unwrap_or_default(),
                         r.max_stress_pa.map(num).unwrap_or_default(),
                         r.required_log_decrement.map(num).unwrap_or_default(),
+                        r.damping_remedy.to_string(),
                         r.verdict.to_string(),
                     ]);
                     w.write_record(&rec).map_err(fmt_err)?;
@@ -76,7 +79,7 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
                 };
                 let mut rec = keys.clone();
                 // Empty cells for every result column but the verdict.
-                rec.extend(std::iter::repeat_n(String::new(), 9));
+                rec.extend(std::iter::repeat_n(String::new(), 10));
                 rec.push(format!("{word}: {}", msg.replace('\n', "; ")));
                 w.write_record(&rec).map_err(fmt_err)?;
             }

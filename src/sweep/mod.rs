@@ -147,10 +147,40 @@ pub struct ModeRow {
     /// Smallest structural log decrement that brings the mode within the criteria, by the
     /// governing EN approach (approach 1 when GB 50009 governs), as `check`'s remedy table
     /// sizes it: `None` when the mode needs none (within the criteria, screened out or
-    /// not judged); infinite when no decrement up to
-    /// [`crate::remedy::required::MAX_LOG_DECREMENT`] suffices.
+    /// not judged) and when no decrement up to
+    /// [`crate::remedy::required::MAX_LOG_DECREMENT`] suffices ([`Self::damping_remedy`]
+    /// tells the two apart). Always finite: no `inf` reaches sweep.csv.
     pub required_log_decrement: Option<f64>,
+    /// Whether damping was needed and could be sized (see [`DampingRemedy`]).
+    pub damping_remedy: DampingRemedy,
     pub verdict: Verdict,
+}
+
+/// The damping answer of a mode in a sweep row.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub enum DampingRemedy {
+    /// Within the criteria, screened out, or not judged.
+    NotNeeded,
+    /// A structural log decrement within the search range suffices (the row's
+    /// `required_log_decrement`).
+    Sized,
+    /// No structural log decrement up to [`crate::remedy::required::MAX_LOG_DECREMENT`]
+    /// brings the mode within the criteria: damping alone cannot.
+    BeyondSearch,
+}
+
+impl std::fmt::Display for DampingRemedy {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            DampingRemedy::NotNeeded => f.write_str("not needed"),
+            DampingRemedy::Sized => f.write_str("sized"),
+            DampingRemedy::BeyondSearch => write!(
+                f,
+                "beyond log decrement {}: damping alone cannot",
+                crate::remedy::required::MAX_LOG_DECREMENT
+            ),
+        }
+    }
 }
 
 /// What one variant gave.
@@ -202,6 +232,7 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
         .flat_map(|(s, sm)| {
             s.modes.iter().map(move |m| {
                 let g = m.governing_summary();
+                let need = required_log_decrement(case, wind, sm, m);
                 ModeRow {
                     stage: s.stage.clone(),
                     mode: m.mode,
@@ -211,7 +242,8 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
                     scruton: Some(m.scruton),
                     tip_amplitude_m: g.tip_amplitude_m,
                     max_stress_pa: g.max_stress_pa,
-                    required_log_decrement: required_log_decrement(case, wind, sm, m),
+                    required_log_decrement: need.log_decrement(),
+                    damping_remedy: need.remedy(),
                     verdict: m.verdict.clone(),
                 }
             })
@@ -234,6 +266,7 @@ fn modal_rows(stages: &[StageModes]) -> Vec<ModeRow> {
                 tip_amplitude_m: None,
                 max_stress_pa: None,
                 required_log_decrement: None,
+                damping_remedy: DampingRemedy::NotNeeded,
                 verdict: Verdict::NotJudged,
             })
         })
@@ -242,25 +275,39 @@ fn modal_rows(stages: &[StageModes]) -> Vec<ModeRow> {
 
 /// The structural log decrement a failing mode needs (see
 /// [`ModeRow::required_log_decrement`]); the same search as `check`'s remedy table.
-fn required_log_decrement(
-    case: &Case,
-    wind: &Wind,
-    sm: &StageModes,
-    m: &ModeVortex,
-) -> Option<f64> {
+fn required_log_decrement(case: &Case, wind: &Wind, sm: &StageModes, m: &ModeVortex) -> Need {
     if !m.verdict.is_exceeds() || m.screened_out {
-        return None;
+        return Need(None);
     }
-    let mode = sm.modes.iter().find(|x| x.number == m.mode)?;
+    let Some(mode) = sm.modes.iter().find(|x| x.number == m.mode) else {
+        return Need(None);
+    };
     let ctx = ModeContext::new(case, wind, &sm.model, mode, m);
     let req = match ctx.governing_en() {
         VortexMethod::En1991E2 => required::required(&ctx, |d| ctx.approach2_y_m(d)),
         _ => required::required(&ctx, |d| ctx.approach1_y_m(d, |_| 1.0)),
     };
     if req.already_meets {
-        None
+        Need(None)
     } else {
-        Some(req.log_decrement.unwrap_or(f64::INFINITY))
+        Need(Some(req.log_decrement))
+    }
+}
+
+/// Outcome of the damping search: `None` = not needed; `Some(None)` = beyond the search.
+struct Need(Option<Option<f64>>);
+
+impl Need {
+    fn log_decrement(&self) -> Option<f64> {
+        self.0.flatten()
+    }
+
+    fn remedy(&self) -> DampingRemedy {
+        match self.0 {
+            None => DampingRemedy::NotNeeded,
+            Some(Some(_)) => DampingRemedy::Sized,
+            Some(None) => DampingRemedy::BeyondSearch,
+        }
     }
 }
 
