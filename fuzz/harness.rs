@@ -134,7 +134,9 @@ pub fn case_text_from(data: &[u8]) -> (String, ModalOptions) {
         t += "beam = \"euler-bernoulli\"\n";
     }
     let stations = n.count(2, 12);
-    let height = n.log_range(1.0, 1500.0);
+    // About the accepted ranges of src/input/physical.rs (height 1000 m, D/t 1000,
+    // stage top 1 % of the height): mostly valid, sometimes refused.
+    let height = n.log_range(1.0, 1100.0);
     let steps: Vec<f64> = (1..stations).map(|_| n.range(0.01, 1.0)).collect();
     let total: f64 = steps.iter().sum();
     t += "stations = [\n";
@@ -148,7 +150,7 @@ pub fn case_text_from(data: &[u8]) -> (String, ModalOptions) {
             };
         }
         let d = n.log_range(0.1, 200.0);
-        let wall = 0.5 * d * n.log_range(0.001, 0.98);
+        let wall = 0.5 * d * n.log_range(0.0022, 0.98);
         t += &format!("  {{ z_m = {z:?}, outer_diameter_m = {d:?}, wall_m = {wall:?} }},\n");
     }
     t += "]\n";
@@ -183,7 +185,7 @@ pub fn case_text_from(data: &[u8]) -> (String, ModalOptions) {
             n.log_range(0.05, 2.0)
         );
         if n.byte() % 2 == 1 {
-            t += &format!("top_z_m = {:?}\n", height * n.range(0.001, 1.0));
+            t += &format!("top_z_m = {:?}\n", height * n.range(0.008, 1.0));
         }
     }
     t += "[wind]\nreference_speed_m_s = 25.0\n";

@@ -113,9 +113,11 @@ fn deviation_vanishes_as_the_wall_thins() {
         );
         run(&case).0.worst_deviation
     };
-    let (thick, mid, thin) = (dev(0.4), dev(0.04), dev(0.004));
+    // 16 mm at the 14 m base (D/t = 875) is about the thinnest wall the physical bounds
+    // admit (outer diameter / 1000, src/input/physical.rs).
+    let (thick, mid, thin) = (dev(0.4), dev(0.16), dev(0.016));
     assert!(thick > mid && mid > thin, "{thick} {mid} {thin}");
-    assert!(thin < 1e-3, "{thin}");
+    assert!(thin < 4e-3, "{thin}");
     // First order in t/D: ten times thinner, about ten times smaller.
     assert!(mid / thin > 5.0 && mid / thin < 20.0, "{}", mid / thin);
 }
