@@ -33,6 +33,7 @@ fn tip_mass_ratios_match_the_frequency_equation() {
             z_m: L,
             mass_kg: mu * m * L,
             label: "tip".into(),
+            stages: None,
         });
         let f = common::frequencies(&case, 3, Some(400));
         let exact = f1_from_lambda(lambda, ei, m);
@@ -55,6 +56,7 @@ fn blevins_tip_mass_ratio_one() {
         z_m: L,
         mass_kg: m * L,
         label: "tip".into(),
+        stages: None,
     });
     let f = common::frequencies(&case, 3, Some(200));
     let exact = f1_from_lambda(1.2479, ei, m);

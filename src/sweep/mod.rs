@@ -194,7 +194,6 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
         return Ok(modal_rows(&stages));
     }
     let vortex = wind::check_all(case, &stages)?;
-    let wind = &vortex.wind;
     Ok(vortex
         .stages
         .iter()
@@ -211,7 +210,7 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
                     scruton: Some(m.scruton),
                     tip_amplitude_m: g.tip_amplitude_m,
                     max_stress_pa: g.max_stress_pa,
-                    required_log_decrement: required_log_decrement(case, wind, sm, m),
+                    required_log_decrement: required_log_decrement(case, &s.climate.wind, sm, m),
                     verdict: m.verdict.clone(),
                 }
             })
