@@ -234,6 +234,7 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
 pub fn warnings(results: &CheckResults) -> Vec<String> {
     // Plausibility first: a unit slip explains whatever follows.
     let mut out = crate::input::plausibility::case_warnings(&results.case);
+    out.extend(crate::input::plausibility::stage_warnings(&results.case));
     out.extend(crate::input::plausibility::modal_warnings(
         &results.case,
         &results.stages,
