@@ -44,7 +44,10 @@ fn c_prob_follows_expression_4_2() {
     // Other K and n (overridable as wind.c_prob_k, wind.c_prob_n): same expression.
     for (k, n) in [(0.11, 1.0), (0.25, 0.6)] {
         let (got, want) = (c_prob(10.0, k, n), expression_4_2(10.0, k, n));
-        assert!((got - want).abs() < 1e-12, "K = {k}, n = {n}: {got} vs {want}");
+        assert!(
+            (got - want).abs() < 1e-12,
+            "K = {k}, n = {n}: {got} vs {want}"
+        );
     }
     // Published worked value (public notebook pcachim/eurocodesnb, p = 0.033, K 0.2, a 0.5);
     // it prints 16 digits, so 1e-12.
@@ -148,7 +151,11 @@ fn scruton_scales_exactly_with_the_stage_log_decrement() {
     for (k, delta) in [(1, 0.015), (2, 0.06)] {
         assert_eq!(m[k].log_decrement, delta);
         let want = m[0].scruton * delta / 0.03;
-        assert!((m[k].scruton / want - 1.0).abs() < 1e-12, "{} vs {want}", m[k].scruton);
+        assert!(
+            (m[k].scruton / want - 1.0).abs() < 1e-12,
+            "{} vs {want}",
+            m[k].scruton
+        );
     }
     // Less damping, more response (approach 1 amplitude falls with Sc).
     let y = |m: &ModeVortex| m.approach1.as_ref().unwrap().y_max_m;

@@ -33,11 +33,8 @@ const DAYS_PER_YEAR: f64 = 365.0;
 const BOUND_ALLOWANCE: f64 = 1e-3;
 
 /// EN 1991-1-6 Table 3.1 (from memory): (longest duration in years, return period in years).
-pub const EXECUTION_RETURN_PERIODS: [(f64, f64); 3] = [
-    (3.0 / DAYS_PER_YEAR, 2.0),
-    (0.25, 5.0),
-    (1.0, 10.0),
-];
+pub const EXECUTION_RETURN_PERIODS: [(f64, f64); 3] =
+    [(3.0 / DAYS_PER_YEAR, 2.0), (0.25, 5.0), (1.0, 10.0)];
 
 /// The probability factor c_prob of EN 1991-1-4 expression (4.2) for a return period of
 /// `return_period_years` (> 1), with shape parameter `k` and exponent `n`. 1 at 50 years.
@@ -73,7 +70,11 @@ pub fn stage_return_period_years(stage: &Stage) -> f64 {
 
 /// c_prob of a stage with the site's K and n.
 pub fn stage_c_prob(stage: &Stage, wind: &Wind) -> f64 {
-    c_prob(stage_return_period_years(stage), wind.c_prob_k, wind.c_prob_n)
+    c_prob(
+        stage_return_period_years(stage),
+        wind.c_prob_k,
+        wind.c_prob_n,
+    )
 }
 
 #[cfg(test)]

@@ -42,8 +42,8 @@ use lining::check_lining;
 use model::check_model;
 use remedy::check_remedy;
 use shell::check_shell;
-use stage::{check_point_mass_stages, check_stage_c_prob, check_stages};
 pub use stage::default_stages;
+use stage::{check_point_mass_stages, check_stage_c_prob, check_stages};
 use vortex::check_vortex;
 use wind::check_wind;
 

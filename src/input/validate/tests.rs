@@ -344,10 +344,15 @@ fn stage_wind_duration_damping_and_point_mass_stages() {
     let w = case.wind.unwrap();
     assert_eq!((w.c_prob_k, w.c_prob_n), (0.11, 1.0));
     // Names are trimmed like stage names.
-    assert_eq!(case.point_masses[1].stages, Some(vec!["to 80 m".to_string()]));
+    assert_eq!(
+        case.point_masses[1].stages,
+        Some(vec!["to 80 m".to_string()])
+    );
     assert!(case.point_masses[1].is_in_stage("to 80 m"));
     assert!(!case.point_masses[1].is_in_stage("lined"));
-    assert!(case.point_masses[0].is_in_stage("lined") && !case.point_masses[0].is_in_stage("to 80 m"));
+    assert!(
+        case.point_masses[0].is_in_stage("lined") && !case.point_masses[0].is_in_stage("to 80 m")
+    );
     // Defaults: no keys = in service, every stage, the recommended K and n.
     let base = run(BASE).unwrap();
     assert!(base.stages.iter().all(|s| s.duration_years.is_none()));

@@ -31,8 +31,7 @@ fn conditions(out: &mut String, input: &ReportInput) {
     type Getter = fn(&StageClimate) -> String;
     let quantities: [(&str, Getter); 6] = [
         ("duration (years)", |c| {
-            c.duration_years
-                .map_or("in service".into(), |d| num(d, 3))
+            c.duration_years.map_or("in service".into(), |d| num(d, 3))
         }),
         ("fatigue cycles counted over (years)", |c| {
             num(c.judged_years, 3)
@@ -89,9 +88,7 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
             opt(m.governing_summary().tip_amplitude_m, 4)
         }),
         ("N load cycles in the stage (-)", |m| {
-            m.governing_summary()
-                .fatigue_cycles
-                .map_or("-".into(), sci)
+            m.governing_summary().fatigue_cycles.map_or("-".into(), sci)
         }),
     ];
     for k in 1..=n_modes {

@@ -100,7 +100,9 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
                         t(&p.label),
                         n(num(p.z_m, 2)),
                         n(num(p.mass_kg, 0)),
-                        t(p.stages.as_ref().map_or("every stage".into(), |s| s.join(", "))),
+                        t(p.stages
+                            .as_ref()
+                            .map_or("every stage".into(), |s| s.join(", "))),
                     ]
                 })
                 .collect(),
@@ -147,10 +149,10 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
                             format!("{} (EN 1991-1-6 Table 3.1)", num(period, 0))
                         }
                     }),
-                    t(s.log_decrement
-                        .map_or(format!("{} (vortex)", num(c.vortex.log_decrement, 4)), |d| {
-                            num(d, 4)
-                        })),
+                    t(s.log_decrement.map_or(
+                        format!("{} (vortex)", num(c.vortex.log_decrement, 4)),
+                        |d| num(d, 4),
+                    )),
                 ]
             })
             .collect(),
