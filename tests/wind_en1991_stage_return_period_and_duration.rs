@@ -161,3 +161,61 @@ fn scruton_scales_exactly_with_the_stage_log_decrement() {
     let y = |m: &ModeVortex| m.approach1.as_ref().unwrap().y_max_m;
     assert!(y(&m[1]) > y(&m[0]) && y(&m[0]) > y(&m[2]));
 }
+
+#[test]
+fn the_e12_screen_uses_the_stage_speed() {
+    // EN 1991-1-4 E.1.2: no check when v_crit > 1.25 v_m. v_crit = 4 x 0.5 / 0.18 = 11.11 m/s;
+    // a uniform 9.5 m/s site wind: 1.25 x 9.5 = 11.875 > v_crit in service, but the 10-year
+    // speed 9.5 x c_prob(10) = 8.574 m/s gives 1.25 x 8.574 = 10.72 < v_crit: screened out.
+    let case = common::case(
+        common::uniform_wind(9.5),
+        VortexMethod::En1991E1,
+        Criteria::default(),
+    );
+    let sm: Vec<StageModes> = [
+        stage("in service", None, None, None),
+        stage("half year", Some(0.5), None, None),
+    ]
+    .into_iter()
+    .map(worked)
+    .collect();
+    let res = wind::check_all(&case, &sm).unwrap();
+    assert!(!res.stages[0].modes[0].screened_out);
+    assert!(res.stages[1].modes[0].screened_out);
+    assert_eq!(res.stages[1].climate.return_period_years, 10.0);
+}
+
+#[test]
+fn required_damping_does_not_depend_on_the_stage_starting_decrement() {
+    // The smallest decrement meeting the criteria is a property of the mode and the wind:
+    // stages that start from delta_s = 0.015 or 0.03 (both failing) need the same delta_s
+    // (bisection to 1e-9 relative, see remedy::required), since Sc = 2 delta m_e / (rho b^2)
+    // (E.1.3.3) is re-scaled from each stage's own decrement.
+    let crit = Criteria {
+        tip_amplitude_m: Some(0.02),
+        tip_amplitude_per_diameter: None,
+        stress_pa: None,
+    };
+    let case = common::case(common::uniform_wind(30.0), VortexMethod::En1991E1, crit);
+    let sm: Vec<StageModes> = [
+        stage("case decrement", None, None, None),
+        stage("less damped", None, None, Some(0.015)),
+    ]
+    .into_iter()
+    .map(worked)
+    .collect();
+    let res = wind::check_all(&case, &sm).unwrap();
+    assert!(res.stages.iter().all(|s| s.modes[0].verdict.is_exceeds()));
+    let rem = stackwake::remedy::compute(&case, &sm, &res);
+    assert_eq!(rem.required_damping.len(), 2);
+    let d: Vec<f64> = rem
+        .required_damping
+        .iter()
+        .map(|r| r.approach1.log_decrement.expect("reachable"))
+        .collect();
+    assert!((d[0] / d[1] - 1.0).abs() < 1e-8, "{d:?}");
+    assert_eq!(
+        rem.required_damping[1].approach1_before.log_decrement,
+        0.015
+    );
+}
