@@ -97,7 +97,21 @@ pub fn check_counts(raw: &RawCase, csv: Option<&CsvStations>) -> Vec<ValidationI
             "stages",
             "a shell is checked at a handful of construction heights",
         ),
-    ];
+    ]
+    .into_iter()
+    .chain(raw.point_mass.iter().enumerate().filter_map(|(i, p)| {
+        let n = p.stages.as_ref().map_or(0, Vec::len);
+        (n > MAX_STAGES).then(|| {
+            (
+                format!("point_mass[{i}].stages"),
+                n,
+                MAX_STAGES,
+                "stage names",
+                "at most one per stage",
+            )
+        })
+    }))
+    .collect::<Vec<_>>();
     counts
         .into_iter()
         .filter(|(_, n, max, _, _)| n > max)
