@@ -189,6 +189,10 @@ fn rows() -> Vec<Row> {
         row("return period of a million years",
             edit("lining = true", "lining = true\nreturn_period_years = 1e6"),
             "stage[0].return_period_years = 1e6: must be at most 10000 years (far above the return periods of wind design; common practice)"),
+        row("c_prob not positive",
+            edit("lining = true", "lining = true\nreturn_period_years = 1.01")
+                .replacen("reference_speed_m_s = 25.0", "reference_speed_m_s = 25.0\nc_prob_k = 1.0", 1),
+            "stage[0].return_period_years = 1.01: gives c_prob = nan with wind.c_prob_k = 1 and wind.c_prob_n = 0.5 (EN 1991-1-4 (4.2)); it must be finite and > 0"),
         row("stage log decrement above 1",
             edit("lining = true", "lining = true\nlog_decrement = 1.5"),
             "stage[0].log_decrement = 1.5: must be between 0 and 1 (exclusive)"),
