@@ -40,6 +40,7 @@ fn case() -> Case {
             z_m: 150.0,
             mass_kg: 30000.0,
             label: "platform".into(),
+            stages: None,
         }],
         base: Some(BaseSprings {
             rotational_nm_per_rad: Some(800e9),
@@ -50,6 +51,9 @@ fn case() -> Case {
             lining: true,
             stiffness_factor: 1.0,
             top_z_m: None,
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
         }],
         wind: Some(Wind {
             reference_speed_m_s: 30.0,
@@ -57,6 +61,8 @@ fn case() -> Case {
             profile: Profile::Power { exponent: 0.16 },
             air_density_kg_m3: 1.25,
             kinematic_viscosity_m2_s: 1.5e-5,
+            c_prob_k: 0.2,
+            c_prob_n: 0.5,
         }),
         vortex: Vortex {
             method: VortexMethod::En1991E1,

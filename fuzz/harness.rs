@@ -164,13 +164,11 @@ pub fn case_text_from(data: &[u8]) -> (String, ModalOptions) {
             n.log_range(1.0, 1e6)
         );
     }
-    for _ in 0..n.count(0, 3) {
-        t += &format!(
-            "[[point_mass]]\nz_m = {:?}\nmass_kg = {:?}\n",
-            n.range(0.0, height),
-            n.log_range(1.0, 1e9)
-        );
-    }
+    // Point masses are written after the stages: each lists the stages whose top it is not
+    // above (a mass above a stage it is present in is an input error), which takes no bytes.
+    let masses: Vec<(f64, f64)> = (0..n.count(0, 3))
+        .map(|_| (n.range(0.0, height), n.log_range(1.0, 1e9)))
+        .collect();
     if n.byte() % 2 == 1 {
         t += &format!(
             "[base]\nrotational_stiffness_gnm_per_rad = {:?}\nlateral_stiffness_mn_per_m = {:?}\n",
@@ -178,15 +176,34 @@ pub fn case_text_from(data: &[u8]) -> (String, ModalOptions) {
             n.log_range(1e-3, 1e9)
         );
     }
+    let mut tops = Vec::new();
     for i in 0..n.count(1, 3) {
         t += &format!(
             "[[stage]]\nname = \"s{i}\"\nlining = {}\nstiffness_factor = {:?}\n",
             n.byte() % 2 == 1,
             n.log_range(0.05, 2.0)
         );
+        let mut top = height;
         if n.byte() % 2 == 1 {
-            t += &format!("top_z_m = {:?}\n", height * n.range(0.008, 1.0));
+            top = height * n.range(0.008, 1.0);
+            t += &format!("top_z_m = {top:?}\n");
         }
+        tops.push(top);
+    }
+    for (z, kg) in masses {
+        let names: Vec<String> = tops
+            .iter()
+            .enumerate()
+            .filter(|(_, &top)| z <= top)
+            .map(|(i, _)| format!("\"s{i}\""))
+            .collect();
+        if names.is_empty() {
+            continue;
+        }
+        t += &format!(
+            "[[point_mass]]\nz_m = {z:?}\nmass_kg = {kg:?}\nstages = [{}]\n",
+            names.join(", ")
+        );
     }
     t += "[wind]\nreference_speed_m_s = 25.0\n";
     let modes = n.count(1, 6);

@@ -15,7 +15,7 @@ pub struct Case {
     pub shell: Shell,
     /// Lining zones; mass only, never stiffness.
     pub linings: Vec<Lining>,
-    /// Platforms, caps, equipment; present in every stage.
+    /// Platforms, caps, equipment; each in every stage or in the stages it names.
     pub point_masses: Vec<PointMass>,
     /// Foundation springs; `None` = fixed base.
     pub base: Option<BaseSprings>,
@@ -190,6 +190,19 @@ pub struct PointMass {
     pub z_m: f64,
     pub mass_kg: f64,
     pub label: String,
+    /// Names of the stages the mass is present in (a climbing formwork rig, a crane);
+    /// `None` = every stage. Each name is a stage of the case, and the mass lies at or below
+    /// the top of each stage it is present in.
+    pub stages: Option<Vec<String>>,
+}
+
+impl PointMass {
+    /// Whether the mass is present in the stage named `stage`.
+    pub fn is_in_stage(&self, stage: &str) -> bool {
+        self.stages
+            .as_ref()
+            .is_none_or(|names| names.iter().any(|n| n == stage))
+    }
 }
 
 /// Foundation springs at z = 0. `None` in a component = rigid in that direction.
@@ -211,12 +224,46 @@ pub struct Stage {
     pub stiffness_factor: f64,
     /// Shell built only up to this height, m (inside (0, H]); `None` = complete.
     pub top_z_m: Option<f64>,
+    /// How long the stage lasts, years (> 0); `None` = in service, judged over
+    /// `vortex.design_life_years`.
+    pub duration_years: Option<f64>,
+    /// Return period of the stage's design wind, years (> 1); `None` = the default of
+    /// `wind::probability::stage_return_period_years` (50 years in service, EN 1991-1-6
+    /// Table 3.1 from the duration).
+    pub return_period_years: Option<f64>,
+    /// Structural log decrement of the stage (0 < delta < 1); `None` = `vortex.log_decrement`.
+    pub log_decrement: Option<f64>,
 }
 
 impl Stage {
+    /// A complete stage of the given name and lining, stiffness factor 1, in service, with
+    /// the case's wind and damping.
+    pub fn in_service(name: &str, lining: bool) -> Self {
+        Stage {
+            name: name.to_string(),
+            lining,
+            stiffness_factor: 1.0,
+            top_z_m: None,
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
+        }
+    }
+
     /// Height of the shell in this stage, m.
     pub fn height_m(&self, shell: &Shell) -> f64 {
         self.top_z_m.unwrap_or_else(|| shell.height_m())
+    }
+
+    /// Years over which the stage is judged (fatigue cycles): its duration, or the design life
+    /// for an in-service stage.
+    pub fn judged_years(&self, design_life_years: f64) -> f64 {
+        self.duration_years.unwrap_or(design_life_years)
+    }
+
+    /// Structural log decrement of the stage: its own, or the case's `vortex.log_decrement`.
+    pub fn log_decrement(&self, vortex: &Vortex) -> f64 {
+        self.log_decrement.unwrap_or(vortex.log_decrement)
     }
 }
 
@@ -239,6 +286,21 @@ pub struct Wind {
     pub profile: Profile,
     pub air_density_kg_m3: f64,
     pub kinematic_viscosity_m2_s: f64,
+    /// Shape parameter K of the probability factor, EN 1991-1-4 (4.2) (0.2 recommended).
+    pub c_prob_k: f64,
+    /// Exponent n of the probability factor, EN 1991-1-4 (4.2) (0.5 recommended).
+    pub c_prob_n: f64,
+}
+
+impl Wind {
+    /// This wind with every mean speed scaled by `factor` (the profile is linear in the
+    /// reference speed, so scaling it scales every height alike).
+    pub fn scaled(&self, factor: f64) -> Wind {
+        Wind {
+            reference_speed_m_s: self.reference_speed_m_s * factor,
+            ..*self
+        }
+    }
 }
 
 /// Vortex-shedding method that governs the verdict (the others are reported alongside).

@@ -154,16 +154,19 @@ fn point_masses_100_times_the_shell_work() {
             z_m: 120.0,
             mass_kg: big,
             label: "huge cap".into(),
+            stages: None,
         },
         PointMass {
             z_m: 60.0,
             mass_kg: big,
             label: "huge platform".into(),
+            stages: None,
         },
         PointMass {
             z_m: 1e-3,
             mass_kg: big,
             label: "at the base".into(),
+            stages: None,
         },
     ];
     let s = analyse_ok(&case, 6, None);
@@ -178,6 +181,7 @@ fn point_masses_100_times_the_shell_work() {
         z_m: 120.0,
         mass_kg: m_tip,
         label: "tip".into(),
+        stages: None,
     }];
     let (ei, m) = common::tube_ei_m(&tip);
     // Rayleigh's correction: add 33/140 of the shell mass (Blevins Table 8-8).
@@ -279,18 +283,27 @@ fn a_stage_built_only_a_few_centimetres_works() {
             lining: false,
             stiffness_factor: 1.0,
             top_z_m: Some(0.05),
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
         },
         Stage {
             name: "one metre".into(),
             lining: false,
             stiffness_factor: 0.05,
             top_z_m: Some(1.0),
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
         },
         Stage {
             name: "complete".into(),
             lining: false,
             stiffness_factor: 2.0,
             top_z_m: None,
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
         },
     ];
     analyse_ok(&case, 3, None);
@@ -356,6 +369,7 @@ fn closely_spaced_nodes_work() {
         z_m: 50.000001,
         mass_kg: 2e4,
         label: "p".into(),
+        stages: None,
     }];
     case.linings = vec![Lining {
         from_z_m: 1e-6,

@@ -58,6 +58,7 @@ fn arb_case() -> impl Strategy<Value = Case> {
                     z_m: frac * h,
                     mass_kg: kg,
                     label: "p".into(),
+                    stages: None,
                 });
             }
             case.linings.push(Lining {
@@ -77,6 +78,9 @@ fn freqs(case: &Case, lining: bool, factor: f64) -> Vec<f64> {
         lining,
         stiffness_factor: factor,
         top_z_m: None,
+        duration_years: None,
+        return_period_years: None,
+        log_decrement: None,
     };
     analyse_stage(
         case,
@@ -101,6 +105,9 @@ fn check_recursion_inverts_the_banded_stiffness(case: &Case, seed: u64) {
         lining: true,
         stiffness_factor: 1.0,
         top_z_m: None,
+        duration_years: None,
+        return_period_years: None,
+        log_decrement: None,
     };
     let model = BeamModel::build(case, &stage, Some(12), 3);
     let n = model.dofs();
@@ -163,6 +170,7 @@ fn recursion_inverts_k_with_a_very_short_element() {
         z_m: 24.012840942622873,
         mass_kg: 1000.0,
         label: "p".into(),
+        stages: None,
     });
     case.linings.push(Lining {
         from_z_m: 6.0,
@@ -185,7 +193,7 @@ proptest! {
 
     #[test]
     fn modes_are_mass_orthonormal_eigenvectors(case in arb_case()) {
-        let stage = Stage { name: "s".into(), lining: true, stiffness_factor: 1.0, top_z_m: None };
+        let stage = Stage::in_service("s", true);
         let (model, sol) = solve_stage(&case, &stage, Some(40), 4).unwrap();
         let mut mphi = Block::zeros(model.dofs(), 4);
         band_times_block(&model.mass, &sol.vectors, &mut mphi);

@@ -33,6 +33,7 @@ fn tip_mass_ratios_match_the_frequency_equation() {
             z_m: L,
             mass_kg: mu * m * L,
             label: "tip".into(),
+            stages: None,
         });
         let f = common::frequencies(&case, 3, Some(400));
         let exact = f1_from_lambda(lambda, ei, m);
@@ -55,6 +56,7 @@ fn blevins_tip_mass_ratio_one() {
         z_m: L,
         mass_kg: m * L,
         label: "tip".into(),
+        stages: None,
     });
     let f = common::frequencies(&case, 3, Some(200));
     let exact = f1_from_lambda(1.2479, ei, m);
@@ -94,4 +96,40 @@ fn stiff_lateral_spring_approaches_the_fixed_base() {
     let a = common::frequencies(&fixed, 3, Some(60));
     let b = common::frequencies(&sprung, 3, Some(60));
     assert!(b[0] < a[0] && (a[0] - b[0]) / a[0] < 1e-5);
+}
+
+#[test]
+fn a_tip_mass_listed_for_one_stage_is_in_that_stage_only() {
+    // `point_mass.stages`: the same shell in two stages, the tip mass (mu = 1) present only in
+    // the first. Stage "rig": Karnovsky & Lebed sec. 7.5.3, lambda_1 = 1.247917 (scipy root);
+    // stage "bare": the plain cantilever, lambda_1 = 1.87510407 (Blevins table 8-1).
+    let mut case = common::uniform_tube(L, 4.0, 0.2, BeamTheory::EulerBernoulli);
+    let (ei, m) = common::tube_ei_m(&case);
+    let bare = stackwake::case::Stage::in_service("bare", false);
+    let rig = stackwake::case::Stage::in_service("rig", false);
+    case.stages = vec![rig, bare];
+    case.point_masses.push(PointMass {
+        z_m: L,
+        mass_kg: m * L,
+        label: "climbing rig".into(),
+        stages: Some(vec!["rig".into()]),
+    });
+    let stages = stackwake::modal::analyse_case(
+        &case,
+        stackwake::modal::ModalOptions {
+            modes: 3,
+            min_elements: Some(400),
+        },
+    )
+    .unwrap();
+    for (s, lambda) in [(&stages[0], 1.247917), (&stages[1], 1.875_104_07)] {
+        let exact = f1_from_lambda(lambda, ei, m);
+        let f = s.modes[0].frequency_hz;
+        // Same tolerance as the tip-mass table above (7 significant digits).
+        assert!(
+            (f - exact).abs() / exact < 2e-6,
+            "stage {}: {f} vs {exact}",
+            s.stage.name
+        );
+    }
 }

@@ -26,6 +26,7 @@ fn tapered_case() -> Case {
         z_m: 150.0,
         mass_kg: 30000.0,
         label: "p".into(),
+        stages: None,
     });
     case.base = Some(BaseSprings {
         rotational_nm_per_rad: Some(800e9),

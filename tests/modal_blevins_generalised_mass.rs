@@ -47,6 +47,7 @@ fn tip_mass_enters_the_equivalent_mass() {
         z_m: 90.0,
         mass_kg: 0.3 * m * 90.0,
         label: "cap".into(),
+        stages: None,
     });
     let r = analyse_stage(
         &case,

@@ -109,6 +109,7 @@ fn model_masses_follow_the_mass_ratio() {
         z_m: 90.0,
         mass_kg: 20000.0,
         label: "cap".into(),
+        stages: None,
     }];
     case.base = Some(BaseSprings {
         rotational_nm_per_rad: Some(5e11),

@@ -62,6 +62,7 @@ fn stack(t_base: f64, t_top: f64, beam: BeamTheory) -> Case {
         z_m: 146.0,
         mass_kg: 20000.0,
         label: "top".into(),
+        stages: None,
     }];
     case.base = Some(BaseSprings {
         rotational_nm_per_rad: Some(9e11),

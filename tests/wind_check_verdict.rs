@@ -105,7 +105,13 @@ fn lock_in_band_on_a_tapered_stack() {
         VortexMethod::En1991E1,
         Criteria::default(),
     );
-    let r = wind::check_mode(&case, "s", &model, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("s", true),
+        &model,
+        &mode,
+    )
+    .unwrap();
     let band = r.lock_in_band.unwrap();
     assert!((band.from_z_m - 140.0 / 3.0).abs() < 1e-9);
     assert_eq!(band.to_z_m, 100.0);

@@ -53,7 +53,13 @@ fn group_changes_st_and_c_lat_in_the_check() {
         Criteria::default(),
     );
     case.vortex.group = Some(common::group(3, 20.0));
-    let r = wind::check_mode(&case, "lined", &model, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("lined", true),
+        &model,
+        &mode,
+    )
+    .unwrap();
     assert!((r.strouhal - 0.159_412_450).abs() < 1e-9);
     assert!((r.critical_speed_m_s - 2.0 / r.strouhal).abs() < 1e-12);
     let a1 = r.approach1.unwrap();

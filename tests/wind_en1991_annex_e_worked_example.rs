@@ -47,7 +47,13 @@ fn full_pipeline_on_the_table_mode_shape() {
         VortexMethod::En1991E1,
         Criteria::default(),
     );
-    let r = wind::check_mode(&case, "lined", &model, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("lined", true),
+        &model,
+        &mode,
+    )
+    .unwrap();
 
     assert_eq!(r.reference_height_m, 80.0);
     assert_eq!(r.diameter_m, 4.0);
@@ -129,7 +135,13 @@ fn exact_cantilever_shape_lowers_k_by_six_percent() {
         VortexMethod::En1991E1,
         Criteria::default(),
     );
-    let r = wind::check_mode(&case, "lined", &model, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("lined", true),
+        &model,
+        &mode,
+    )
+    .unwrap();
     let y = r.approach1.unwrap().y_max_m;
     assert!((y / 0.054_580 - 0.9396).abs() < 1e-3, "y = {y}");
 }

@@ -57,7 +57,13 @@ fn transcritical_load_and_tip_amplitude() {
         VortexMethod::Gb50009H1,
         Criteria::default(),
     );
-    let r = wind::check_mode(&case, "s", &model, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("s", true),
+        &model,
+        &mode,
+    )
+    .unwrap();
     let g = &r.gb50009;
     assert!((g.critical_speed_m_s - 20.0).abs() < 1e-12);
     assert!((g.reynolds - 1.104e7).abs() < 1e-3);
@@ -93,14 +99,26 @@ fn supercritical_is_not_a_resonance_and_subcritical_lock_in_is_flagged() {
         ..Criteria::default()
     };
     let case = common::case(common::uniform_wind(30.0), VortexMethod::Gb50009H1, crit);
-    let r = wind::check_mode(&case, "s", &model, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("s", true),
+        &model,
+        &mode,
+    )
+    .unwrap();
     assert_eq!(r.gb50009.regime, gb50009::Regime::Supercritical);
     assert!(!r.gb50009.resonance && r.gb50009.tip_amplitude_m.is_none());
     assert_eq!(r.verdict.to_string(), "clear");
     // small tube, n = 0.5, D = 0.5: v_cr = 1.25, Re = 43125 (subcritical) with v_H = 30.
     let small = common::uniform_tube(20.0, 0.5, 0.05, 200.0, 20);
     let mode = common::parabola_mode(&small, 1, 0.5, 200.0);
-    let r = wind::check_mode(&case, "s", &small, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("s", true),
+        &small,
+        &mode,
+    )
+    .unwrap();
     assert!(r.gb50009.subcritical_lock_in);
     // v_cr = 1.25 m/s < 15 m/s: GB 50009-2012 8.5.3(1) asks for anti-vibration measures.
     assert_eq!(r.gb50009.subcritical_speed_rule_met, Some(false));
@@ -122,7 +140,13 @@ fn subcritical_lock_in_with_v_cr_of_15_m_s_or_more_needs_no_measures() {
     };
     let case = common::case(common::uniform_wind(30.0), VortexMethod::Gb50009H1, crit);
     let mode = common::parabola_mode(&small, 1, 12.0, 50.0);
-    let r = wind::check_mode(&case, "s", &small, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("s", true),
+        &small,
+        &mode,
+    )
+    .unwrap();
     let g = &r.gb50009;
     assert!((g.critical_speed_m_s - 15.0).abs() < 1e-9);
     assert_eq!(g.regime, gb50009::Regime::Subcritical);
@@ -132,7 +156,13 @@ fn subcritical_lock_in_with_v_cr_of_15_m_s_or_more_needs_no_measures() {
     assert!(!r.verdict.is_exceeds(), "{}", r.verdict);
     // Just below 15 m/s (n = 11.9 Hz: v_cr = 14.875 m/s) measures are required.
     let mode = common::parabola_mode(&small, 1, 11.9, 50.0);
-    let r = wind::check_mode(&case, "s", &small, &mode).unwrap();
+    let r = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("s", true),
+        &small,
+        &mode,
+    )
+    .unwrap();
     assert_eq!(r.gb50009.subcritical_speed_rule_met, Some(false));
     assert!(r.verdict.is_exceeds());
 }
@@ -151,7 +181,14 @@ fn damping_ratio_default_is_0_05_and_the_case_value_overrides_it() {
     assert_eq!(wind::damping_ratio(&case), 0.02);
     let model = common::uniform_tube(80.0, 8.0, 0.4, 20000.0, 40);
     let mode = common::cantilever_mode(&model, 1, 0.5, 20000.0);
-    let g = wind::check_mode(&case, "s", &model, &mode).unwrap().gb50009;
+    let g = wind::check_mode(
+        &case,
+        &stackwake::case::Stage::in_service("s", true),
+        &model,
+        &mode,
+    )
+    .unwrap()
+    .gb50009;
     assert_eq!(g.damping_ratio, 0.02);
     assert!(!g.damping_ratio_is_default);
 }

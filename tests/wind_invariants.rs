@@ -47,8 +47,8 @@ proptest! {
     fn critical_speed_scales_with_frequency(n in 0.05f64..3.0, k in 1.1f64..4.0) {
         let model = common::uniform_tube(80.0, 4.0, 0.3, 12000.0, 20);
         let case = common::case(common::uniform_wind(30.0), VortexMethod::En1991E1, Criteria::default());
-        let r1 = wind::check_mode(&case, "s", &model, &common::parabola_mode(&model, 1, n, 12000.0)).unwrap();
-        let r2 = wind::check_mode(&case, "s", &model, &common::parabola_mode(&model, 1, k * n, 12000.0)).unwrap();
+        let r1 = wind::check_mode(&case, &stackwake::case::Stage::in_service("s", true), &model, &common::parabola_mode(&model, 1, n, 12000.0)).unwrap();
+        let r2 = wind::check_mode(&case, &stackwake::case::Stage::in_service("s", true), &model, &common::parabola_mode(&model, 1, k * n, 12000.0)).unwrap();
         prop_assert!((r2.critical_speed_m_s / r1.critical_speed_m_s - k).abs() < 1e-12);
     }
 
@@ -69,7 +69,7 @@ proptest! {
         model.point_masses = vec![(n_el, tip_mass)];
         let mode = common::cantilever_mode(&model, mode_no, 0.4 * mode_no as f64, 10000.0);
         let case = common::case(common::uniform_wind(60.0), VortexMethod::En1991E1, Criteria::default());
-        let r = wind::check_mode(&case, "s", &model, &mode).unwrap();
+        let r = wind::check_mode(&case, &stackwake::case::Stage::in_service("s", true), &model, &mode).unwrap();
         prop_assume!(!r.loads.is_empty());
         let y = r.approach1.as_ref().unwrap().y_max_m;
         let w2 = (2.0 * std::f64::consts::PI * mode.frequency_hz).powi(2);

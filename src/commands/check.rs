@@ -116,6 +116,40 @@ pub fn verdict_table(results: &CheckResults) -> String {
     )
 }
 
+/// The stages' own wind, duration and damping (EN 1991-1-4 (4.2), EN 1991-1-6 Table 3.1).
+pub fn stage_table(results: &CheckResults) -> String {
+    let rows: Vec<Vec<String>> = results
+        .vortex
+        .stages
+        .iter()
+        .map(|s| {
+            let c = &s.climate;
+            vec![
+                s.stage.clone(),
+                c.duration_years
+                    .map_or("in service".into(), |d| format!("{d}")),
+                format!("{}", c.judged_years),
+                format!("{}", c.return_period_years),
+                format!("{:.4}", c.c_prob),
+                format!("{:.2}", c.wind.reference_speed_m_s),
+                format!("{}", c.log_decrement),
+            ]
+        })
+        .collect();
+    table::render(
+        &[
+            "stage",
+            "duration_years",
+            "cycles_over_years",
+            "return_period_years",
+            "c_prob",
+            "v_ref_m_s",
+            "log_decrement",
+        ],
+        &rows,
+    )
+}
+
 /// The remedy table: each remedy beside the unmitigated result.
 pub fn remedy_table(remedies: &RemedyResults) -> String {
     let rows: Vec<Vec<String>> = remedies
@@ -234,6 +268,7 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
 pub fn warnings(results: &CheckResults) -> Vec<String> {
     // Plausibility first: a unit slip explains whatever follows.
     let mut out = crate::input::plausibility::case_warnings(&results.case);
+    out.extend(crate::input::plausibility::stage_warnings(&results.case));
     out.extend(crate::input::plausibility::modal_warnings(
         &results.case,
         &results.stages,
@@ -395,8 +430,12 @@ pub fn run(
     let files = staging.commit()?;
     let mut stdout = format!("{}\n\n", results.case.title);
     stdout.push_str(&modes_table(&results.stages));
+    stdout.push_str(
+        "stage wind (50-year speeds x c_prob, EN 1991-1-4 (4.2)), duration and damping\n",
+    );
+    stdout.push_str(&stage_table(&results));
     stdout.push_str(&format!(
-        "vortex shedding ({}; the others are reported for comparison)\n",
+        "\nvortex shedding ({}; the others are reported for comparison)\n",
         results.case.vortex.method.key()
     ));
     stdout.push_str(&verdict_table(&results));

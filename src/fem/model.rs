@@ -169,7 +169,11 @@ pub fn mesh_nodes(case: &Case, stage: &Stage, min_elements: usize) -> Vec<f64> {
             }
         }
     }
-    for p in &case.point_masses {
+    for p in case
+        .point_masses
+        .iter()
+        .filter(|p| p.is_in_stage(&stage.name))
+    {
         if p.z_m > 0.0 && p.z_m < height {
             required.push(p.z_m);
         }
@@ -288,7 +292,11 @@ impl BeamModel {
         }
         let mut point_masses = Vec::new();
         let tol = 1e-9 * z_m[n_nodes - 1];
-        for p in &case.point_masses {
+        for p in case
+            .point_masses
+            .iter()
+            .filter(|p| p.is_in_stage(&stage.name))
+        {
             if let Some(i) = z_m.iter().position(|z| (z - p.z_m).abs() <= tol) {
                 mass.add(4 * i, 4 * i, p.mass_kg);
                 point_masses.push((i, p.mass_kg));

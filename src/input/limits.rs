@@ -18,6 +18,10 @@ use super::stations_csv::CsvStations;
 /// Air density range, kg/m3: about 0.7 at 3000 m altitude in summer to 1.5 at sea level at
 /// -40 C (ISA standard atmosphere, common practice); 0.5-2.0 leaves margin on both sides.
 pub const AIR_DENSITY_RANGE_KG_M3: (f64, f64) = (0.5, 2.0);
+/// Longest return period of a stage's design wind, years: our own bound, far above the
+/// 50-year basic wind of EN 1991-1-4 and any return period used in wind design (common
+/// practice).
+pub const MAX_RETURN_PERIOD_YEARS: f64 = 10_000.0;
 /// Smallest structural log decrement: 0.001 (damping ratio 1.6e-4) is well below the
 /// lowest value EN 1991-1-4 Table F.2 gives for any structure (0.012, welded steel stack
 /// without lining; from memory); below it the Scruton number and the amplitude lose meaning.
@@ -93,7 +97,21 @@ pub fn check_counts(raw: &RawCase, csv: Option<&CsvStations>) -> Vec<ValidationI
             "stages",
             "a shell is checked at a handful of construction heights",
         ),
-    ];
+    ]
+    .into_iter()
+    .chain(raw.point_mass.iter().enumerate().filter_map(|(i, p)| {
+        let n = p.stages.as_ref().map_or(0, Vec::len);
+        (n > MAX_STAGES).then(|| {
+            (
+                format!("point_mass[{i}].stages"),
+                n,
+                MAX_STAGES,
+                "stage names",
+                "at most one per stage",
+            )
+        })
+    }))
+    .collect::<Vec<_>>();
     counts
         .into_iter()
         .filter(|(_, n, max, _, _)| n > max)
@@ -171,6 +189,44 @@ pub fn check_ranges(raw: &RawCase) -> Vec<ValidationIssue> {
                      100 years for monumental structures)"
                 ),
             );
+        }
+    }
+    for (i, st) in raw.stage.iter().flatten().enumerate() {
+        if let Some(d) = st.log_decrement.filter(|v| *v > 0.0 && *v < 1.0) {
+            if d < MIN_LOG_DECREMENT {
+                fail(
+                    &format!("stage[{i}].log_decrement"),
+                    d,
+                    format!(
+                        "must be at least {MIN_LOG_DECREMENT} (below any structure's measured \
+                         damping; a smaller value gives an infinite amplitude)"
+                    ),
+                );
+            }
+        }
+        if let Some(y) = st.duration_years.filter(|v| v.is_finite() && *v > 0.0) {
+            if y > MAX_DESIGN_LIFE_YEARS {
+                fail(
+                    &format!("stage[{i}].duration_years"),
+                    y,
+                    format!(
+                        "must be at most {MAX_DESIGN_LIFE_YEARS} years, the longest design life \
+                         accepted"
+                    ),
+                );
+            }
+        }
+        if let Some(t) = st.return_period_years.filter(|v| v.is_finite() && *v > 1.0) {
+            if t > MAX_RETURN_PERIOD_YEARS {
+                fail(
+                    &format!("stage[{i}].return_period_years"),
+                    t,
+                    format!(
+                        "must be at most {MAX_RETURN_PERIOD_YEARS} years (far above the return \
+                         periods of wind design; common practice)"
+                    ),
+                );
+            }
         }
     }
     issues

@@ -18,6 +18,10 @@
 //!   codes stay below ~50 m/s; 94 is a km/h value; over 100 m/s is an error in `validate`);
 //! - log_decrement 0.01-0.3 (below: a damping ratio typed for it, delta = 2 pi zeta);
 //! - design_life_years <= 200;
+//! - stages (wind checks only): a stage without `duration_years` whose shell is not complete,
+//!   or which leaves out the case's lining, is judged as in service (50-year wind, cycles over
+//!   the design life): it is asked about; a stage lasting longer than the design life, and a
+//!   stage log_decrement outside 0.01-0.3, are asked about too;
 //! - group spacing: closer than 1 base diameter an error, closer than 3 a warning (the
 //!   in-line rule's range, EN 1991-1-4 Annex E, from memory: 1 <= a/b, with the interference
 //!   of close stacks not covered well below a/b = 3; common practice).
@@ -144,6 +148,50 @@ pub fn case_warnings(case: &Case) -> Vec<String> {
         }
     }
     out.extend(spring_warnings(case));
+    out
+}
+
+/// Warnings about the stages' durations and damping, for the commands that run wind checks.
+pub fn stage_warnings(case: &Case) -> Vec<String> {
+    let mut out = Vec::new();
+    let h = case.shell.height_m();
+    let life = case.vortex.design_life_years;
+    for s in &case.stages {
+        let partial = s.height_m(&case.shell) < h;
+        let unlined = !s.lining && !case.linings.is_empty();
+        match s.duration_years {
+            None if partial || unlined => out.push(format!(
+                "stage {:?} ({}): judged as in service; give duration_years for a construction \
+                 stage",
+                s.name,
+                if partial {
+                    "shell not complete"
+                } else {
+                    "lining not installed"
+                }
+            )),
+            Some(d) if d > life => out.push(format!(
+                "stage {:?}: duration_years = {} is longer than vortex.design_life_years = {}; \
+                 leave duration_years out for an in-service stage",
+                s.name,
+                num(d),
+                num(life)
+            )),
+            _ => {}
+        }
+        if let Some(delta) = s.log_decrement {
+            if !(LOG_DECREMENT.0..=LOG_DECREMENT.1).contains(&delta) {
+                out.push(format!(
+                    "stage {:?}: log_decrement = {}: outside the plausible {}-{} of a \
+                     structure's own damping (a damping ratio or a percentage?)",
+                    s.name,
+                    num(delta),
+                    LOG_DECREMENT.0,
+                    LOG_DECREMENT.1
+                ));
+            }
+        }
+    }
     out
 }
 

@@ -108,6 +108,8 @@ pub struct RawPointMass {
     pub z_m: f64,
     pub mass_kg: f64,
     pub label: Option<String>,
+    /// Names of the stages the mass is present in; `None` = every stage.
+    pub stages: Option<Vec<String>>,
 }
 
 /// `[base]`: absent component = rigid in that direction.
@@ -126,6 +128,9 @@ pub struct RawStage {
     pub lining: bool,
     pub stiffness_factor: Option<f64>,
     pub top_z_m: Option<f64>,
+    pub duration_years: Option<f64>,
+    pub return_period_years: Option<f64>,
+    pub log_decrement: Option<f64>,
 }
 
 /// `profile = "power" | "log"`.
@@ -148,6 +153,8 @@ pub struct RawWind {
     pub z_min_m: Option<f64>,
     pub air_density_kg_m3: Option<f64>,
     pub kinematic_viscosity_m2_s: Option<f64>,
+    pub c_prob_k: Option<f64>,
+    pub c_prob_n: Option<f64>,
 }
 
 /// `method = "en1991-e1" | "en1991-e2" | "gb50009-h1"`.

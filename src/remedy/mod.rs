@@ -163,7 +163,7 @@ fn outcome_of(ctx: &ModeContext, delta: f64, y1: Option<f64>, y2: Option<f64>) -
 /// The check's own (unmitigated) result for a mode by one EN approach, as an [`Outcome`]:
 /// tip, stress and verdict all from `method`, whichever method governs the check. A
 /// screened-out mode keeps the check's verdict.
-fn checked_outcome(case: &Case, ctx: &ModeContext, method: VortexMethod) -> Outcome {
+fn checked_outcome(ctx: &ModeContext, method: VortexMethod) -> Outcome {
     let m = ctx.checked;
     let y = match method {
         VortexMethod::En1991E2 => m.approach2.as_ref().map(|a| a.y_max_m),
@@ -178,7 +178,7 @@ fn checked_outcome(case: &Case, ctx: &ModeContext, method: VortexMethod) -> Outc
     };
     Outcome {
         method,
-        log_decrement: case.vortex.log_decrement,
+        log_decrement: m.log_decrement,
         scruton: m.scruton,
         approach1_tip_amplitude_m: m.approach1.as_ref().map(|a| a.tip_amplitude_m),
         approach2_tip_amplitude_m: m.approach2.as_ref().map(|a| a.tip_amplitude_m),
@@ -204,24 +204,25 @@ fn stage_selected(wanted: &Option<String>, stage: &str) -> bool {
 /// `[remedy]` devices of the case.
 pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> RemedyResults {
     let mut out = RemedyResults::default();
-    let delta_s = case.vortex.log_decrement;
     let spec = case.remedy.as_ref();
     for (sm, sv) in stages.iter().zip(&vortex.stages) {
         for mv in &sv.modes {
             let Some(mode) = sm.modes.iter().find(|m| m.number == mv.mode) else {
                 continue;
             };
-            let ctx = ModeContext::new(case, &vortex.wind, &sm.model, mode, mv);
+            // Each stage is re-checked with its own design wind and damping.
+            let ctx = ModeContext::new(case, &sv.climate.wind, &sm.model, mode, mv);
+            let delta_s = mv.log_decrement;
             // Each remedy row compares like with like: the unmitigated result by the same
             // approach that re-checks the remedy.
-            let before = checked_outcome(case, &ctx, ctx.governing_en());
+            let before = checked_outcome(&ctx, ctx.governing_en());
 
             if mv.verdict.is_exceeds() && !mv.screened_out {
                 out.required_damping.push(RequiredDamping {
                     stage: sv.stage.clone(),
                     mode: mv.mode,
-                    approach1_before: checked_outcome(case, &ctx, VortexMethod::En1991E1),
-                    approach2_before: checked_outcome(case, &ctx, VortexMethod::En1991E2),
+                    approach1_before: checked_outcome(&ctx, VortexMethod::En1991E1),
+                    approach2_before: checked_outcome(&ctx, VortexMethod::En1991E2),
                     approach1: required::required(&ctx, |d| ctx.approach1_y_m(d, |_| 1.0)),
                     approach2: required::required(&ctx, |d| ctx.approach2_y_m(d)),
                 });
@@ -266,7 +267,7 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
                     after.max_stress_pa = r.max_stress_pa;
                     after.verdict = ctx.judge(y1);
                     if !met {
-                        let unmitigated = checked_outcome(case, &ctx, VortexMethod::En1991E1);
+                        let unmitigated = checked_outcome(&ctx, VortexMethod::En1991E1);
                         out.warnings.push(format!(
                             "stage \"{}\" mode {}: Sc = {:.1} <= 8: EN 1991-1-4 does not credit strakes (from memory); the straked response is shown but the verdict stays unmitigated",
                             sv.stage, mv.mode, mv.scruton
@@ -283,7 +284,7 @@ pub fn compute(case: &Case, stages: &[StageModes], vortex: &VortexResults) -> Re
                         effective_c_lat_factor: strakes::effective_factor(w, s.c_lat_factor),
                         en_condition_met: met,
                         drag_coefficient: s.drag_coefficient,
-                        before: checked_outcome(case, &ctx, VortexMethod::En1991E1),
+                        before: checked_outcome(&ctx, VortexMethod::En1991E1),
                         after,
                     });
                 }
@@ -323,7 +324,7 @@ fn tmd_result(
     let zeta_tmd = tmd::den_hartog_damping_ratio(mu);
     let zeta_eq = tmd::equivalent_damping_ratio(mu);
     let added = 2.0 * PI * zeta_eq;
-    let delta_s = ctx.case.vortex.log_decrement;
+    let delta_s = mv.log_decrement;
     let delta = delta_s + added;
     let f_tmd = f_ratio * mv.frequency_hz;
     let omega = 2.0 * PI * f_tmd;

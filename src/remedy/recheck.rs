@@ -15,7 +15,7 @@ use crate::wind::{approach2, loads, profile, ModeShape, ModeVortex};
 /// The mode as the check saw it, with what a remedy needs to re-solve it.
 pub struct ModeContext<'a> {
     pub case: &'a Case,
-    /// The site wind the check used.
+    /// The stage's design wind the check used (the site's wind x c_prob).
     pub wind: &'a Wind,
     pub model: &'a StageModel,
     pub mode: &'a Mode,
@@ -54,7 +54,7 @@ impl<'a> ModeContext<'a> {
 
     /// Scruton number at structural log decrement `delta`.
     pub fn scruton(&self, delta: f64) -> f64 {
-        self.checked.scruton * delta / self.case.vortex.log_decrement
+        self.checked.scruton * delta / self.checked.log_decrement
     }
 
     /// Approach 1 antinode amplitude at decrement `delta`, with c_lat multiplied by

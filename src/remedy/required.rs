@@ -50,7 +50,7 @@ pub fn smallest_passing(delta_now: f64, passes: impl Fn(f64) -> bool) -> Option<
 
 /// Required decrement for one approach; `amplitude(delta)` gives the antinode amplitude.
 pub fn required(ctx: &ModeContext, amplitude: impl Fn(f64) -> f64) -> Required {
-    let delta_now = ctx.case.vortex.log_decrement;
+    let delta_now = ctx.checked.log_decrement;
     let passes = |d: f64| !ctx.judge(amplitude(d)).is_exceeds();
     if passes(delta_now) {
         return Required {

@@ -70,8 +70,12 @@ pub fn check_results(
                     // The profile speed is taken at the mode's shedding height.
                     e.inputs = format!(
                         "the wind profile at this mode's shedding height z = {} m \
-                         (wind.reference_height_m = {}, wind.reference_speed_m_s = {})",
-                        m.reference_height_m, w.reference_height_m, w.reference_speed_m_s
+                         (wind.reference_height_m = {}, wind.reference_speed_m_s = {}, the \
+                         stage's c_prob = {})",
+                        m.reference_height_m,
+                        w.reference_height_m,
+                        w.reference_speed_m_s,
+                        s.climate.c_prob
                     );
                 }
                 return Err(e);

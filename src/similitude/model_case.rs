@@ -104,6 +104,8 @@ struct FilePointMass {
     z_m: f64,
     mass_kg: f64,
     label: String,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    stages: Option<Vec<String>>,
 }
 
 #[derive(Serialize)]
@@ -121,6 +123,14 @@ struct FileStage {
     stiffness_factor: f64,
     #[serde(skip_serializing_if = "Option::is_none")]
     top_z_m: Option<f64>,
+    // Durations and return periods are not scaled (the model's speeds scale by the same
+    // c_prob as the prototype's); the log decrement is identical in model and prototype.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    duration_years: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    return_period_years: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    log_decrement: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -136,6 +146,8 @@ struct FileWind {
     z_min_m: Option<f64>,
     air_density_kg_m3: f64,
     kinematic_viscosity_m2_s: f64,
+    c_prob_k: f64,
+    c_prob_n: f64,
 }
 
 #[derive(Serialize)]
@@ -280,6 +292,7 @@ pub fn model_case(
             z_m: r(p.z_m / k.length),
             mass_kg: *kg,
             label: label.clone(),
+            stages: p.stages.clone(),
         })
         .collect();
 
@@ -298,6 +311,9 @@ pub fn model_case(
             lining: s.lining,
             stiffness_factor: s.stiffness_factor,
             top_z_m: s.top_z_m.map(|z| r(z / k.length)),
+            duration_years: s.duration_years,
+            return_period_years: s.return_period_years,
+            log_decrement: s.log_decrement,
         })
         .collect();
 
@@ -324,6 +340,8 @@ pub fn model_case(
             z_min_m,
             air_density_kg_m3: w.air_density_kg_m3,
             kinematic_viscosity_m2_s: w.kinematic_viscosity_m2_s,
+            c_prob_k: w.c_prob_k,
+            c_prob_n: w.c_prob_n,
         }
     });
     let v = &prototype.vortex;

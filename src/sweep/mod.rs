@@ -224,7 +224,6 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
         return Ok(modal_rows(&stages));
     }
     let vortex = wind::check_all(case, &stages)?;
-    let wind = &vortex.wind;
     Ok(vortex
         .stages
         .iter()
@@ -232,7 +231,7 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
         .flat_map(|(s, sm)| {
             s.modes.iter().map(move |m| {
                 let g = m.governing_summary();
-                let need = required_log_decrement(case, wind, sm, m);
+                let need = required_log_decrement(case, &s.climate.wind, sm, m);
                 ModeRow {
                     stage: s.stage.clone(),
                     mode: m.mode,

@@ -9,7 +9,7 @@
 //! constant exists, so the table cannot drift from the calculation.
 //! Sources and search record: data/reference/README.md, section "Constants registry".
 
-use crate::wind::{approach1, approach2, fatigue, gb50009, shedding};
+use crate::wind::{approach1, approach2, fatigue, gb50009, probability, shedding};
 
 /// How far a constant has been checked.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -221,6 +221,33 @@ pub fn registry() -> Vec<ConstantEntry> {
             "GB 50009 comparison",
             ConfirmedByPublicText,
             GB,
+        ),
+        e(
+            "c_prob, EN 1991-1-4 4.2(2)P Note 4, expression (4.2)",
+            format!(
+                "((1 - K ln(-ln(1 - p))) / (1 - K ln(-ln(0.98))))^n, p = 1 / T; K = {}, n = {}",
+                probability::C_PROB_K,
+                probability::C_PROB_N
+            ),
+            "every mean speed of a stage whose return period is not 50 years",
+            ConfirmedByPublicText,
+            "repo pcachim/eurocodesnb (notebook \"EC1-4 - Wind speed probabilities\"); also \
+             the page \"Probability factor cprob\" of eurocodes-tools.com",
+        ),
+        e(
+            "return periods of execution stages (EN 1991-1-6 Table 3.1)",
+            probability::EXECUTION_RETURN_PERIODS
+                .iter()
+                .map(|(d, t)| format!("duration <= {d:.4} years: {t} years"))
+                .chain([format!(
+                    "longer: {} years",
+                    probability::IN_SERVICE_RETURN_PERIOD_YEARS
+                )])
+                .collect::<Vec<_>>()
+                .join("; "),
+            "default return_period_years of a stage with duration_years",
+            FromMemory,
+            NOT_FOUND,
         ),
     ]
 }

@@ -19,14 +19,16 @@ pub mod gb50009;
 mod gb_check;
 pub mod group;
 pub mod loads;
+pub mod probability;
 pub mod profile;
 pub mod shape;
 pub mod shedding;
+pub mod stage_climate;
 pub mod verdict;
 
 use serde::Serialize;
 
-use crate::case::{Case, VortexMethod, Wind};
+use crate::case::{Case, Stage, VortexMethod, Wind};
 use crate::modal::{Mode, StageModel, StageModes};
 
 pub use error::{site_wind, WindError};
@@ -34,12 +36,14 @@ pub use group::GroupRule;
 pub use loads::LoadPoint;
 pub use shape::ModeShape;
 pub use shedding::HeightBand;
+pub use stage_climate::StageClimate;
 pub use verdict::Verdict;
 
 /// Results of every stage.
 #[derive(Debug, Clone, Serialize)]
 pub struct VortexResults {
-    /// The site wind the checks used (the case's `[wind]`).
+    /// The site's 50-year wind (the case's `[wind]`); each stage's own design wind is in its
+    /// [`StageVortex::climate`].
     pub wind: Wind,
     pub stages: Vec<StageVortex>,
     /// Case-level warnings, each given once (e.g. the GB 50009 outer-face taper).
@@ -50,6 +54,8 @@ pub struct VortexResults {
 #[derive(Debug, Clone, Serialize)]
 pub struct StageVortex {
     pub stage: String,
+    /// The stage's wind (return period, c_prob), duration and damping.
+    pub climate: StageClimate,
     pub modes: Vec<ModeVortex>,
     /// Stage-level warnings (e.g. fewer modes available than requested).
     pub warnings: Vec<String>,
@@ -167,10 +173,13 @@ pub struct ModeVortex {
     /// St used by the EN methods (user override, group rule, or 0.18).
     pub strouhal: f64,
     pub critical_speed_m_s: f64,
+    /// The stage's mean speed at the reference height (the site's 50-year speed x c_prob).
     pub mean_speed_m_s: f64,
     /// v_crit / v_m at the reference height.
     pub speed_ratio: f64,
     pub reynolds: f64,
+    /// Structural log decrement of the stage used in `scruton`.
+    pub log_decrement: f64,
     pub scruton: f64,
     pub equivalent_mass_kg_m: f64,
     /// EN 1991-1-4 E.1.2: v_crit > 1.25 v_m, no further EN check.
@@ -350,10 +359,11 @@ pub fn check_stage(case: &Case, stage_modes: &StageModes) -> Result<StageVortex,
         .modes
         .iter()
         .take(wanted)
-        .map(|m| check_mode(case, &stage_modes.stage.name, &stage_modes.model, m))
+        .map(|m| check_mode(case, &stage_modes.stage, &stage_modes.model, m))
         .collect::<Result<Vec<ModeVortex>, WindError>>()?;
     Ok(StageVortex {
         stage: stage_modes.stage.name.clone(),
+        climate: StageClimate::of(case, &stage_modes.stage, site_wind(case, "check")?),
         modes,
         warnings,
     })
@@ -368,14 +378,16 @@ pub fn damping_ratio(case: &Case) -> f64 {
         .unwrap_or(gb50009::DAMPING_RATIO_CONCRETE)
 }
 
-/// Checks one mode of one stage. Needs the case's `[wind]`.
+/// Checks one mode of one stage with the stage's own wind, duration and damping
+/// ([`StageClimate`]). Needs the case's `[wind]`.
 pub fn check_mode(
     case: &Case,
-    stage: &str,
+    stage: &Stage,
     model: &StageModel,
     mode: &Mode,
 ) -> Result<ModeVortex, WindError> {
-    let wind = site_wind(case, "check")?;
+    let climate = StageClimate::of(case, stage, site_wind(case, "check")?);
+    let wind = &climate.wind;
     let vortex = &case.vortex;
     let mut warnings = Vec::new();
     let shape = ModeShape::from_mode(model, mode);
@@ -408,6 +420,8 @@ pub fn check_mode(
 
     let v_crit = shedding::critical_speed_m_s(b, n, strouhal);
     let v_m = profile::mean_speed_m_s(wind, z_ref);
+    // Fatigue cycles count the site's climate, whatever the stage's design return period.
+    let v_m_site = profile::mean_speed_m_s(&climate.site_wind, z_ref);
     let re = shedding::reynolds(b, v_crit, wind.kinematic_viscosity_m2_s);
     let m_e = if mode.equivalent_mass_kg_m.is_finite() && mode.equivalent_mass_kg_m > 0.0 {
         mode.equivalent_mass_kg_m
@@ -420,7 +434,7 @@ pub fn check_mode(
         ));
         m
     };
-    let sc = shedding::scruton(vortex.log_decrement, m_e, wind.air_density_kg_m3, b);
+    let sc = shedding::scruton(climate.log_decrement, m_e, wind.air_density_kg_m3, b);
     let screened = shedding::screened_out(v_crit, v_m);
     let segments = shedding::lock_in_band(model, n, strouhal, wind);
 
@@ -466,11 +480,11 @@ pub fn check_mode(
             base_moment_nm: unit_base * y1,
             max_stress_pa: unit_stress * y1,
             fatigue_cycles: fatigue::load_cycles(
-                vortex.design_life_years,
+                climate.judged_years,
                 n,
                 fatigue::EPS0_APPROACH1,
                 v_crit,
-                v_m,
+                v_m_site,
             ),
             iterations: s.amplitude.iterations,
         };
@@ -494,11 +508,11 @@ pub fn check_mode(
             base_moment_nm: unit_base * r2.y_max_m,
             max_stress_pa: unit_stress * r2.y_max_m,
             fatigue_cycles: fatigue::load_cycles(
-                vortex.design_life_years,
+                climate.judged_years,
                 n,
                 fatigue::EPS0_APPROACH2,
                 v_crit,
-                v_m,
+                v_m_site,
             ),
         };
         (Some(a1), Some(a2))
@@ -577,7 +591,7 @@ pub fn check_mode(
     );
 
     Ok(ModeVortex {
-        stage: stage.to_string(),
+        stage: stage.name.clone(),
         mode: mode.number,
         frequency_hz: n,
         reference_height_m: z_ref,
@@ -587,6 +601,7 @@ pub fn check_mode(
         mean_speed_m_s: v_m,
         speed_ratio: v_crit / v_m,
         reynolds: re,
+        log_decrement: climate.log_decrement,
         scruton: sc,
         equivalent_mass_kg_m: m_e,
         screened_out: screened,

@@ -56,6 +56,8 @@ mod tests {
             profile,
             air_density_kg_m3: 1.25,
             kinematic_viscosity_m2_s: 1.5e-5,
+            c_prob_k: 0.2,
+            c_prob_n: 0.5,
         }
     }
 

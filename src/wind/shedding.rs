@@ -150,6 +150,8 @@ mod tests {
             profile: Profile::Power { exponent: 0.0 },
             air_density_kg_m3: 1.25,
             kinematic_viscosity_m2_s: 1.5e-5,
+            c_prob_k: 0.2,
+            c_prob_n: 0.5,
         };
         let bands = lock_in_band(&model, 0.5, 0.2, &wind);
         assert_eq!(bands.len(), 1);

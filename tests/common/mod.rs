@@ -36,6 +36,9 @@ pub fn shell_case(
             lining: false,
             stiffness_factor: 1.0,
             top_z_m: None,
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
         }],
         wind: Some(Wind {
             reference_speed_m_s: 30.0,
@@ -43,6 +46,8 @@ pub fn shell_case(
             profile: Profile::Power { exponent: 0.16 },
             air_density_kg_m3: 1.25,
             kinematic_viscosity_m2_s: 1.5e-5,
+            c_prob_k: 0.2,
+            c_prob_n: 0.5,
         }),
         vortex: Vortex {
             method: VortexMethod::En1991E1,

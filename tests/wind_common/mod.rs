@@ -16,6 +16,8 @@ pub fn uniform_wind(speed: f64) -> Wind {
         profile: Profile::Power { exponent: 0.0 },
         air_density_kg_m3: 1.25,
         kinematic_viscosity_m2_s: 15e-6,
+        c_prob_k: 0.2,
+        c_prob_n: 0.5,
     }
 }
 
@@ -76,6 +78,9 @@ pub fn stage() -> Stage {
         lining: true,
         stiffness_factor: 1.0,
         top_z_m: None,
+        duration_years: None,
+        return_period_years: None,
+        log_decrement: None,
     }
 }
 

@@ -42,8 +42,8 @@ use lining::check_lining;
 use model::check_model;
 use remedy::check_remedy;
 use shell::check_shell;
-use stage::check_stages;
 pub use stage::default_stages;
+use stage::{check_point_mass_stages, check_stage_c_prob, check_stages};
 use vortex::check_vortex;
 use wind::check_wind;
 
@@ -217,6 +217,10 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
                 z_m: pm.z_m,
                 mass_kg: pm.mass_kg,
                 label,
+                stages: pm
+                    .stages
+                    .as_ref()
+                    .map(|names| names.iter().map(|n| n.trim().to_string()).collect()),
             });
         }
     }
@@ -236,9 +240,15 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
         })
     });
 
+    let before_stages = c.issues.len();
     let stages = check_stages(&mut c, raw, height_m);
+    let stages_valid = c.issues.len() == before_stages;
+    check_point_mass_stages(&mut c, raw, &stages, stages_valid, shell.as_ref());
     // `None` = no [wind] in the file; `Some(None)` = a [wind] with problems.
     let wind = raw.wind.as_ref().map(|w| check_wind(&mut c, w));
+    if let Some(Some(w)) = &wind {
+        check_stage_c_prob(&mut c, raw, &stages, w);
+    }
     let vortex = check_vortex(&mut c, &raw.vortex);
 
     let criteria = Criteria {

@@ -317,6 +317,51 @@ fn point_mass_rules() {
 }
 
 #[test]
+fn stage_wind_duration_damping_and_point_mass_stages() {
+    let text = append(
+        "[[stage]]\nname = \"to 80 m\"\nlining = false\ntop_z_m = 80.0\nduration_years = 0.25\n\
+         log_decrement = 0.02\n[[stage]]\nname = \"lined\"\nlining = true\n\
+         return_period_years = 100.0",
+    )
+    .replacen(
+        "mass_kg = 10000.0",
+        "mass_kg = 10000.0\nstages = [\"lined\"]\n[[point_mass]]\nz_m = 80.0\n\
+         mass_kg = 5000.0\nlabel = \"rig\"\nstages = [\" to 80 m \"]",
+        1,
+    )
+    .replacen(
+        "reference_speed_m_s = 25.0",
+        "reference_speed_m_s = 25.0\nc_prob_k = 0.11\nc_prob_n = 1.0",
+        1,
+    );
+    let case = run(&text).expect("valid");
+    let (a, b) = (&case.stages[0], &case.stages[1]);
+    assert_eq!(a.duration_years, Some(0.25));
+    assert_eq!(a.log_decrement, Some(0.02));
+    assert_eq!(a.return_period_years, None);
+    assert_eq!(b.return_period_years, Some(100.0));
+    assert_eq!(b.log_decrement(&case.vortex), DEFAULT_LOG_DECREMENT);
+    let w = case.wind.unwrap();
+    assert_eq!((w.c_prob_k, w.c_prob_n), (0.11, 1.0));
+    // Names are trimmed like stage names.
+    assert_eq!(
+        case.point_masses[1].stages,
+        Some(vec!["to 80 m".to_string()])
+    );
+    assert!(case.point_masses[1].is_in_stage("to 80 m"));
+    assert!(!case.point_masses[1].is_in_stage("lined"));
+    assert!(
+        case.point_masses[0].is_in_stage("lined") && !case.point_masses[0].is_in_stage("to 80 m")
+    );
+    // Defaults: no keys = in service, every stage, the recommended K and n.
+    let base = run(BASE).unwrap();
+    assert!(base.stages.iter().all(|s| s.duration_years.is_none()));
+    assert_eq!(base.point_masses[0].stages, None);
+    let w = base.wind.unwrap();
+    assert_eq!((w.c_prob_k, w.c_prob_n), (0.2, 0.5));
+}
+
+#[test]
 fn stage_rules() {
     let stage = |body: &str| append(&format!("[[stage]]\n{body}"));
     fails_with(
@@ -343,8 +388,16 @@ fn stage_rules() {
         &format!("stage = []\n{BASE}"),
         "stage: no stages given; give at least one [[stage]], or leave stage out for the default stages (shell only, lined)",
     );
-    // A partial stage below the first station above the base is fine.
-    let case = run(&stage("name = \"a\"\nlining = false\ntop_z_m = 10.0")).expect("valid");
+    // A partial stage below the first station above the base is fine (without the point
+    // mass at 90 m, which would lie above the stage's top).
+    let case = run(
+        &stage("name = \"a\"\nlining = false\ntop_z_m = 10.0").replacen(
+            "[[point_mass]]\nz_m = 90.0\nmass_kg = 10000.0\n",
+            "",
+            1,
+        ),
+    )
+    .expect("valid");
     assert_eq!(case.stages[0].top_z_m, Some(10.0));
 }
 

@@ -74,11 +74,19 @@ pub(super) fn check_wind(c: &mut Checker, w: &RawWind) -> Option<Wind> {
         .kinematic_viscosity_m2_s
         .unwrap_or(DEFAULT_KINEMATIC_VISCOSITY_M2_S);
     c.positive("wind.kinematic_viscosity_m2_s", kinematic_viscosity_m2_s);
+    // EN 1991-1-4 4.2(2)P Note 4, expression (4.2): K and n are positive constants of the
+    // extreme-value distribution (K = 0.2, n = 0.5 recommended).
+    let c_prob_k = w.c_prob_k.unwrap_or(crate::wind::probability::C_PROB_K);
+    c.positive("wind.c_prob_k", c_prob_k);
+    let c_prob_n = w.c_prob_n.unwrap_or(crate::wind::probability::C_PROB_N);
+    c.positive("wind.c_prob_n", c_prob_n);
     (c.issues.len() == before).then_some(Wind {
         reference_speed_m_s: w.reference_speed_m_s,
         reference_height_m: z_ref,
         profile,
         air_density_kg_m3,
         kinematic_viscosity_m2_s,
+        c_prob_k,
+        c_prob_n,
     })
 }

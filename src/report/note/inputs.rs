@@ -91,11 +91,20 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
     }
     if !c.point_masses.is_empty() {
         Table {
-            head: heads(&["point mass", "z (m)", "mass (kg)"]),
+            head: heads(&["point mass", "z (m)", "mass (kg)", "present in stages"]),
             rows: c
                 .point_masses
                 .iter()
-                .map(|p| vec![t(&p.label), n(num(p.z_m, 2)), n(num(p.mass_kg, 0))])
+                .map(|p| {
+                    vec![
+                        t(&p.label),
+                        n(num(p.z_m, 2)),
+                        n(num(p.mass_kg, 0)),
+                        t(p.stages
+                            .as_ref()
+                            .map_or("every stage".into(), |s| s.join(", "))),
+                    ]
+                })
                 .collect(),
         }
         .write(out);
@@ -118,16 +127,32 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
             "lining installed",
             "stiffness factor",
             "shell top (m)",
+            "duration (years)",
+            "return period of the wind (years)",
+            "log decrement δ_s (-)",
         ]),
         rows: c
             .stages
             .iter()
             .map(|s| {
+                let period = crate::wind::probability::stage_return_period_years(s);
                 vec![
                     t(&s.name),
                     t(if s.lining { "yes" } else { "no" }),
                     n(num(s.stiffness_factor, 2)),
                     n(num(s.height_m(&c.shell), 2)),
+                    t(s.duration_years.map_or("in service".into(), |d| num(d, 3))),
+                    t(match (s.return_period_years, s.duration_years) {
+                        (Some(_), _) => num(period, 1),
+                        (None, None) => format!("{} (default, in service)", num(period, 0)),
+                        (None, Some(_)) => {
+                            format!("{} (EN 1991-1-6 Table 3.1)", num(period, 0))
+                        }
+                    }),
+                    t(s.log_decrement.map_or(
+                        format!("{} (vortex)", num(c.vortex.log_decrement, 4)),
+                        |d| num(d, 4),
+                    )),
                 ]
             })
             .collect(),
@@ -145,7 +170,7 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
     };
     let mut rows = vec![
         vec![
-            t("mean wind speed at reference height (m/s)"),
+            t("mean wind speed at reference height, 50-year (m/s)"),
             n(num(input.vortex.wind.reference_speed_m_s, 2)),
         ],
         vec![
@@ -160,6 +185,14 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
         vec![
             t("kinematic viscosity ν (m²/s)"),
             n(sci(input.vortex.wind.kinematic_viscosity_m2_s)),
+        ],
+        vec![
+            t("c_prob shape parameter K (-), EN 1991-1-4 (4.2)"),
+            n(num(input.vortex.wind.c_prob_k, 3)),
+        ],
+        vec![
+            t("c_prob exponent n (-), EN 1991-1-4 (4.2)"),
+            n(num(input.vortex.wind.c_prob_n, 3)),
         ],
         vec![t("governing method"), t(method_name(c.vortex.method))],
         vec![

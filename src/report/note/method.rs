@@ -24,15 +24,20 @@ eigen-solver whose completeness is proven by a Sturm count (section 4).</p>
 section) by EN 1991-1-4:2005 Annex E:</p>
 <ul>
 <li>E.1.3.1: critical speed v_crit = b n / St, with St = 0.18 for a circular section;</li>
-<li>E.1.2: no further check when v_crit &gt; 1.25 v_m (mean speed at the shedding section);</li>
+<li>E.1.2: no further check when v_crit &gt; 1.25 v_m (mean speed at the shedding section);
+v_m is the stage's own design speed, the site's 50-year speed times c_prob of the stage's
+return period (EN 1991-1-4 4.2(2)P, expression (4.2); for a construction stage by default the
+return period of EN 1991-1-6 Table 3.1 for its duration);</li>
 <li>E.1.3.3 and E.1.3.4: Scruton number Sc = 2 delta_s m_e / (rho b^2) with the structural log
-decrement and the equivalent mass (F.14), Reynolds number Re = b v_crit / nu;</li>
+decrement of the stage (default vortex.log_decrement) and the equivalent mass (F.14), Reynolds
+number Re = b v_crit / nu;</li>
 <li>E.1.5.2 (approach 1): peak amplitude from c_lat (Figure E.2, Table E.3), correlation length
 (Table E.4) and the factors K and K_W (E.8, E.9) integrated over the computed mode shape;</li>
 <li>E.1.5.3 (approach 2): peak amplitude from the standard deviation with the constants C_c,
 K_a and a_L and the peak factor;</li>
 <li>E.1.4: inertia forces F(z) = m(z) (2 pi n)^2 y(z), from which shear, bending moment and
-extreme-fibre stress follow; fatigue cycles by E.1.5.2.6 / E.1.5.3.</li>
+extreme-fibre stress follow; fatigue cycles by E.1.5.2.6 / E.1.5.3, counted over the
+stage's duration (in service: the design life) with v_0 from the site's 50-year speed.</li>
 </ul>
 <p>GB 50009-2012 Appendix H.1 (critical speed, Reynolds regimes and the equivalent resonance
 load) is computed for comparison; it governs only if chosen.</p>

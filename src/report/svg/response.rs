@@ -21,11 +21,12 @@ const SAMPLES: usize = 121;
 /// that is not screened out, in mode order; each curve's x is the mean speed at the mode's
 /// shedding height and includes the design speed itself as a sample.
 pub fn figure(input: &ReportInput) -> Figure {
-    let wind = &input.vortex.wind;
     let mut panels = Vec::new();
     let mut footnotes = Vec::new();
     let mut n_modes = 0;
     for (s, sv) in input.stages.iter().zip(&input.vortex.stages) {
+        // The stage's own design wind (site profile x c_prob), as in the note's tables.
+        let wind = &sv.climate.wind;
         let mut curves = Vec::new();
         let mut guides = Vec::new();
         let (mut x_lo, mut x_hi, mut y_hi) = (f64::INFINITY, 0.0f64, 0.0f64);

@@ -31,7 +31,15 @@ fn marks(input: &ReportInput, x_range: (f64, f64), panel: &mut Panel, labels: bo
             at: p.z_m,
             vertical: false,
             label: if labels {
-                format!("{} ({:.1} t)", p.label, p.mass_kg / 1000.0)
+                match &p.stages {
+                    None => format!("{} ({:.1} t)", p.label, p.mass_kg / 1000.0),
+                    Some(names) => format!(
+                        "{} ({:.1} t; {})",
+                        p.label,
+                        p.mass_kg / 1000.0,
+                        names.join(", ")
+                    ),
+                }
             } else {
                 String::new()
             },

@@ -4,6 +4,9 @@
 //! limited to 1.5 x the largest mean speed so that high modes do not squash the picture;
 //! modes that lie wholly beyond it are listed under the plot.
 //!
+//! Each stage's profile is its own design wind (the site's 50-year profile x the stage's
+//! c_prob, EN 1991-1-4 (4.2)), the same speeds as the note's tables.
+//!
 //! Units: speeds in m/s, heights in m. References: v_crit = b n / St (EN 1991-1-4 E.1.3.1,
 //! from memory), v_m(z) from the case's profile (EN 1991-1-4 4.3 or a power law).
 
@@ -19,19 +22,21 @@ fn profile_heights(top_m: f64) -> Vec<f64> {
 
 /// The wind-map plot.
 pub fn plot(input: &ReportInput) -> Result<Plot, ReportError> {
-    let wind = &input.vortex.wind;
     let h = max_height_m(input);
+    // Each stage's own design wind (the site's 50-year profile x the stage's c_prob).
     let v_max = input
+        .vortex
         .stages
         .iter()
-        .map(|s| profile::mean_speed_m_s(wind, s.model.height_m()))
-        .fold(profile::mean_speed_m_s(wind, h), f64::max);
+        .map(|sv| profile::mean_speed_m_s(&sv.climate.wind, h))
+        .fold(profile::mean_speed_m_s(&input.vortex.wind, h), f64::max);
     let x_range = (0.0, 1.5 * v_max);
     let mut footnotes = Vec::new();
     let mut n_modes = 0;
     let mut any_band = vec![false; 0];
     let mut panels = Vec::new();
     for (s, sv) in input.stages.iter().zip(&input.vortex.stages) {
+        let wind = &sv.climate.wind;
         let top = s.model.height_m();
         let mut panel = Panel {
             title: s.stage.name.clone(),
