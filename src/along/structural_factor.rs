@@ -80,8 +80,9 @@ pub fn background_factor(width_m: f64, height_m: f64, length_scale_m: f64) -> f6
 
 /// Aerodynamic admittance R_h or R_b (B.7, B.8); R(0) = 1 by continuity.
 pub fn admittance(eta: f64) -> f64 {
-    if eta < 1e-6 {
-        return 1.0 - 2.0 * eta / 3.0;
+    if eta < 1e-3 {
+        // Taylor series of (B.7): the closed form cancels catastrophically near 0.
+        return 1.0 - 2.0 * eta / 3.0 + eta * eta / 3.0 - 2.0 * eta.powi(3) / 15.0;
     }
     1.0 / eta - (1.0 - (-2.0 * eta).exp()) / (2.0 * eta * eta)
 }
@@ -157,6 +158,9 @@ mod tests {
     fn admittance_limits() {
         assert!((admittance(0.0) - 1.0).abs() < 1e-12);
         assert!((admittance(1e-5) - (1.0 - 2e-5 / 3.0)).abs() < 1e-9);
+        // Series and closed form agree where they meet.
+        let closed = |e: f64| 1.0 / e - (1.0 - (-2.0 * e).exp()) / (2.0 * e * e);
+        assert!((admittance(0.999e-3) - closed(0.999e-3)).abs() < 1e-9);
         // Large eta: R -> 1/eta - 1/(2 eta^2).
         assert!((admittance(100.0) - (0.01 - 0.5e-4)).abs() < 1e-12);
     }
