@@ -45,15 +45,18 @@ fn base_shear_and_moment_match_closed_form() {
     let lz = |z: f64| (z / z0).ln();
     let qmin = a * (lz(zmin).powi(2) + 7.0 * lz(zmin));
     let iv = |z: f64| z * (lz(z).powi(2) - 2.0 * lz(z) + 2.0) + 7.0 * z * (lz(z) - 1.0);
-    let izv = |z: f64| {
-        z * z / 2.0 * (lz(z).powi(2) - lz(z) + 0.5) + 7.0 * z * z / 2.0 * (lz(z) - 0.5)
-    };
+    let izv =
+        |z: f64| z * z / 2.0 * (lz(z).powi(2) - lz(z) + 0.5) + 7.0 * z * z / 2.0 * (lz(z) - 0.5);
     let c = cscd * cf * b;
     let v0 = c * (qmin * zmin + a * (iv(h) - iv(zmin)));
     let m0 = c * (qmin * zmin * zmin / 2.0 + a * (izv(h) - izv(zmin)));
     let rel = |x: f64, y: f64| ((x - y) / y).abs();
     assert!(rel(pts[0].shear_n, v0) < 1e-6, "{} vs {v0}", pts[0].shear_n);
-    assert!(rel(pts[0].moment_nm, m0) < 1e-6, "{} vs {m0}", pts[0].moment_nm);
+    assert!(
+        rel(pts[0].moment_nm, m0) < 1e-6,
+        "{} vs {m0}",
+        pts[0].moment_nm
+    );
     assert_eq!(pts.last().unwrap().moment_nm, 0.0);
     // Stress on the gross section: M / W, W = pi/32 (D^4 - d^4) / D.
     let d = b - 0.6;

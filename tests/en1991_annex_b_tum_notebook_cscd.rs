@@ -37,9 +37,21 @@ fn tum_notebook_cscd_within_one_percent() {
         6.0,
     );
     let close = |got: f64, want: f64| (got - want).abs() / want < 0.01;
-    assert!(close(f.spectral_density, 0.163), "S_L {}", f.spectral_density);
-    assert!(close(f.background_factor, 0.416), "B2 {}", f.background_factor);
-    assert!(close(f.resonance_factor, 1.275), "R2 {}", f.resonance_factor);
+    assert!(
+        close(f.spectral_density, 0.163),
+        "S_L {}",
+        f.spectral_density
+    );
+    assert!(
+        close(f.background_factor, 0.416),
+        "B2 {}",
+        f.background_factor
+    );
+    assert!(
+        close(f.resonance_factor, 1.275),
+        "R2 {}",
+        f.resonance_factor
+    );
     assert!(close(f.peak_factor, 3.0), "k_p {}", f.peak_factor);
     assert!(close(f.cscd, 1.141), "cscd {}", f.cscd);
 }

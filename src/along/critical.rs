@@ -111,17 +111,21 @@ pub fn governs(design: &[(f64, f64)], combined: &[&[(f64, f64)]]) -> Governs {
     }
     if let Some(from) = open {
         // Up to the last node with a design moment (the top has none).
-        let last = (0..design.len()).rev().find(|&i| ratio(i).is_some()).unwrap_or(0);
+        let last = (0..design.len())
+            .rev()
+            .find(|&i| ratio(i).is_some())
+            .unwrap_or(0);
         ranges.push(GoverningRange {
             from_z_m: from,
             to_z_m: design[last].0,
         });
     }
     let base_ratio = ratio(0);
+    let base = base_ratio.map_or(String::new(), |r| format!("; ratio at the base {r:.2}"));
     let statement = match (ranges.is_empty(), max_ratio) {
         (true, Some((r, z))) => format!(
             "along-wind design governs everywhere (largest vortex/design ratio {r:.2} at \
-             {z:.0} m)"
+             {z:.0} m{base})"
         ),
         (true, None) => "along-wind design governs everywhere".into(),
         (false, m) => {
@@ -131,7 +135,7 @@ pub fn governs(design: &[(f64, f64)], combined: &[&[(f64, f64)]]) -> Governs {
                 .collect();
             let (r, z) = m.unwrap_or((f64::NAN, f64::NAN));
             format!(
-                "vortex case governs {}, ratio {r:.2} at {z:.0} m",
+                "vortex case governs {}, ratio {r:.2} at {z:.0} m{base}",
                 list.join(", ")
             )
         }
@@ -161,8 +165,20 @@ mod tests {
 
     #[test]
     fn governing_ranges_and_statement() {
-        let design = [(0.0, 10.0), (10.0, 6.0), (20.0, 3.0), (30.0, 1.0), (40.0, 0.0)];
-        let comb = [(0.0, 8.0), (10.0, 7.0), (20.0, 4.0), (30.0, 0.5), (40.0, 0.0)];
+        let design = [
+            (0.0, 10.0),
+            (10.0, 6.0),
+            (20.0, 3.0),
+            (30.0, 1.0),
+            (40.0, 0.0),
+        ];
+        let comb = [
+            (0.0, 8.0),
+            (10.0, 7.0),
+            (20.0, 4.0),
+            (30.0, 0.5),
+            (40.0, 0.0),
+        ];
         let g = governs(&design, &[&comb]);
         assert_eq!(
             g.vortex_ranges,
@@ -172,9 +188,19 @@ mod tests {
             }]
         );
         assert!((g.base_ratio.unwrap() - 0.8).abs() < 1e-12);
-        assert!(g.statement.starts_with("vortex case governs 10-20 m, ratio 1.33 at 20 m"));
-        let low = [(0.0, 1.0), (10.0, 1.0), (20.0, 1.0), (30.0, 0.5), (40.0, 0.0)];
+        assert!(g
+            .statement
+            .starts_with("vortex case governs 10-20 m, ratio 1.33 at 20 m"));
+        let low = [
+            (0.0, 1.0),
+            (10.0, 1.0),
+            (20.0, 1.0),
+            (30.0, 0.5),
+            (40.0, 0.0),
+        ];
         let g = governs(&design, &[&low]);
-        assert!(g.statement.starts_with("along-wind design governs everywhere"));
+        assert!(g
+            .statement
+            .starts_with("along-wind design governs everywhere"));
     }
 }

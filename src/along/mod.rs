@@ -100,9 +100,12 @@ pub fn stage_along_wind(
 ) -> Result<StageAlongWind, AlongError> {
     let wind = case.wind.as_ref().ok_or(AlongError::MissingWind)?;
     let model = &stage_modes.model;
-    let first = stage_modes.modes.first().ok_or_else(|| AlongError::NoMode {
-        stage: stage_modes.stage.name.clone(),
-    })?;
+    let first = stage_modes
+        .modes
+        .first()
+        .ok_or_else(|| AlongError::NoMode {
+            stage: stage_modes.stage.name.clone(),
+        })?;
     let mut warnings = Vec::new();
     let profile = stage_profile(spec, wind.air_density_kg_m3, c_prob);
     let h = model.height_m();
@@ -187,7 +190,10 @@ pub fn stage_along_wind(
             }
         })
         .collect();
-    let combined: Vec<&[(f64, f64)]> = modes.iter().map(|m| m.combined_moment_nm.as_slice()).collect();
+    let combined: Vec<&[(f64, f64)]> = modes
+        .iter()
+        .map(|m| m.combined_moment_nm.as_slice())
+        .collect();
     let governs = critical::governs(&moment_nm, &combined);
 
     Ok(StageAlongWind {

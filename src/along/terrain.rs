@@ -138,8 +138,7 @@ impl EnProfile {
     /// Turbulent length scale L(z) (B.1), m.
     pub fn length_scale_m(&self, z_m: f64) -> f64 {
         let alpha = 0.67 + 0.05 * self.terrain.roughness_m().ln();
-        LENGTH_SCALE_REF_M
-            * (z_m.max(self.terrain.z_min_m()) / LENGTH_SCALE_HEIGHT_M).powf(alpha)
+        LENGTH_SCALE_REF_M * (z_m.max(self.terrain.z_min_m()) / LENGTH_SCALE_HEIGHT_M).powf(alpha)
     }
 
     /// The same profile with v_b scaled by `factor`.

@@ -65,8 +65,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     // [wind] is optional here: only the commands that run wind checks need it, and they
     // say so (`modes` and `scale` run without it).
     let wind = decode_optional_table(table.remove("wind"), "wind", &mut issues);
-    let along_wind =
-        decode_optional_table(table.remove("along_wind"), "along_wind", &mut issues);
+    let along_wind = decode_optional_table(table.remove("along_wind"), "along_wind", &mut issues);
     let vortex = decode_optional_table(table.remove("vortex"), "vortex", &mut issues);
     let criteria = decode_optional_table(table.remove("criteria"), "criteria", &mut issues);
     let model = decode_optional_table(table.remove("model"), "model", &mut issues);
@@ -77,8 +76,8 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
         return Err(issues);
     }
     match (
-        shell, lining, point_mass, base, stage, wind, along_wind, vortex, criteria, model,
-        remedy, project,
+        shell, lining, point_mass, base, stage, wind, along_wind, vortex, criteria, model, remedy,
+        project,
     ) {
         (
             Some(shell),

@@ -130,7 +130,10 @@ basic_speed_m_s = 26.0
 
     #[test]
     fn negative_orography_factor() {
-        let e = errors(&BASE.replace("basic_speed_m_s = 26.0", "basic_speed_m_s = 26.0\norography_factor = -1.0"));
+        let e = errors(&BASE.replace(
+            "basic_speed_m_s = 26.0",
+            "basic_speed_m_s = 26.0\norography_factor = -1.0",
+        ));
         assert!(
             e.contains(&"wind.orography_factor = -1: must be > 0".to_string()),
             "{e:?}"
@@ -139,7 +142,10 @@ basic_speed_m_s = 26.0
 
     #[test]
     fn zero_roughness() {
-        let e = errors(&BASE.replace("density_kg_m3 = 2500.0", "density_kg_m3 = 2500.0\nsurface_roughness_mm = 0.0"));
+        let e = errors(&BASE.replace(
+            "density_kg_m3 = 2500.0",
+            "density_kg_m3 = 2500.0\nsurface_roughness_mm = 0.0",
+        ));
         assert!(
             e.contains(&"shell.surface_roughness_mm = 0: must be > 0".to_string()),
             "{e:?}"
@@ -151,12 +157,17 @@ basic_speed_m_s = 26.0
         let text = BASE.replace("terrain_category = \"II\"\n", "");
         let e = errors(&text);
         assert!(
-            e.iter().any(|m| m.starts_with("wind.basic_speed_m_s = 26: belongs to")),
+            e.iter()
+                .any(|m| m.starts_with("wind.basic_speed_m_s = 26: belongs to")),
             "{e:?}"
         );
-        let e = errors(&format!("{}[along_wind]\nforce_coefficient = 0.7\n", text.replace("basic_speed_m_s = 26.0\n", "")));
+        let e = errors(&format!(
+            "{}[along_wind]\nforce_coefficient = 0.7\n",
+            text.replace("basic_speed_m_s = 26.0\n", "")
+        ));
         assert!(
-            e.iter().any(|m| m.starts_with("along_wind.force_coefficient = 0.7: applies")),
+            e.iter()
+                .any(|m| m.starts_with("along_wind.force_coefficient = 0.7: applies")),
             "{e:?}"
         );
     }
@@ -164,7 +175,15 @@ basic_speed_m_s = 26.0
     #[test]
     fn missing_basic_speed_and_bad_factors() {
         let e = errors(&BASE.replace("basic_speed_m_s = 26.0", "c_dir = 1.2"));
-        assert!(e.iter().any(|m| m.starts_with("wind.basic_speed_m_s: missing")), "{e:?}");
-        assert!(e.iter().any(|m| m.starts_with("wind.c_dir = 1.2: must be at most 1")), "{e:?}");
+        assert!(
+            e.iter()
+                .any(|m| m.starts_with("wind.basic_speed_m_s: missing")),
+            "{e:?}"
+        );
+        assert!(
+            e.iter()
+                .any(|m| m.starts_with("wind.c_dir = 1.2: must be at most 1")),
+            "{e:?}"
+        );
     }
 }

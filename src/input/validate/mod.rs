@@ -16,9 +16,9 @@
 use std::collections::HashSet;
 
 use crate::case::{
-    AlongWindSpec, Arrangement, BaseSprings, BeamTheory, Case, Criteria, Group, Lining, LiningMass, ModelSpec,
-    PointMass, Profile, RemedySpec, Shell, Stage, Station, StrakesSpec, TmdMass, TmdSpec, Vortex,
-    TerrainCategory, VortexMethod, Wind,
+    AlongWindSpec, Arrangement, BaseSprings, BeamTheory, Case, Criteria, Group, Lining, LiningMass,
+    ModelSpec, PointMass, Profile, RemedySpec, Shell, Stage, Station, StrakesSpec, TerrainCategory,
+    TmdMass, TmdSpec, Vortex, VortexMethod, Wind,
 };
 
 use super::issue::ValidationIssue;

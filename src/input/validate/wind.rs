@@ -151,7 +151,11 @@ pub(super) fn check_en_wind(c: &mut Checker, w: &RawWind) -> Option<EnWindKeys> 
         let v = v.unwrap_or(1.0);
         let path = format!("wind.{key}");
         if c.positive(&path, v) && v > 1.0 {
-            c.fail(path, v, "must be at most 1 (EN 1991-1-4 4.2; recommended value 1)");
+            c.fail(
+                path,
+                v,
+                "must be at most 1 (EN 1991-1-4 4.2; recommended value 1)",
+            );
         }
         v
     };
