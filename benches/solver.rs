@@ -58,6 +58,7 @@ fn case() -> Case {
             air_density_kg_m3: 1.25,
             kinematic_viscosity_m2_s: 1.5e-5,
         }),
+        along_wind: None,
         vortex: Vortex {
             method: VortexMethod::En1991E1,
             strouhal: None,

@@ -31,10 +31,23 @@ pub const MAX_SLENDERNESS: f64 = 70.0;
 /// c_f,0 of Figure 7.28 at Reynolds number `re` and roughness ratio k/b.
 pub fn c_f0(re: f64, roughness_ratio: f64) -> f64 {
     // The figure starts at Re = 1e5; below it the subcritical plateau 1.2 holds.
-    let re6 = re.max(1e5) / 1e6;
-    let k_b = roughness_ratio.max(MIN_ROUGHNESS_RATIO);
-    let subcritical = (0.11 / re6.powf(1.4)).clamp(0.4, 1.2);
-    let supercritical = 1.2 + 0.18 * (10.0 * k_b).log10() / (1.0 + 0.4 * re6.log10());
+    c_f0_from_logs(
+        (re.max(1e5) / 1e6).log10(),
+        (10.0 * roughness_ratio.max(MIN_ROUGHNESS_RATIO)).log10(),
+    )
+}
+
+/// c_f,0 from x = log10(Re / 1e6) (x >= -1) and lk = log10(10 k/b): the same curves, with
+/// logarithms computed once by the caller (the line load re-evaluates c_f at several
+/// speeds, where only x changes).
+pub fn c_f0_from_logs(x: f64, lk: f64) -> f64 {
+    // 0.11 (Re/1e6)^-1.4 <= 0.4 for x >= log10(0.11 / 0.4) / 1.4 = -0.4005: skip the power.
+    let subcritical = if x >= -0.4 {
+        0.4
+    } else {
+        (0.11 * 10f64.powf(-1.4 * x)).clamp(0.4, 1.2)
+    };
+    let supercritical = 1.2 + 0.18 * lk / (1.0 + 0.4 * x);
     subcritical.max(supercritical)
 }
 
@@ -92,6 +105,13 @@ mod tests {
         // Drag crisis: at Re = 4e5 curve 1 gives 0.11 / 0.4^1.4 = 0.397 -> floor 0.4;
         // curve 2 (k/b 1e-5) 1.2 - 0.72 / (1 + 0.4 log10 0.4) = 0.344 -> 0.4 governs.
         assert!((c_f0(4e5, 1e-5) - 0.4).abs() < 1e-12);
+        // The shortcut near its threshold agrees with the plain curve.
+        for re in [3.9e5, 3.97e5, 3.98e5, 4.0e5, 4.1e5] {
+            let x: f64 = (re / 1e6f64).log10();
+            let plain = (0.11 / (re / 1e6f64).powf(1.4)).clamp(0.4, 1.2);
+            let sup = 1.2 + 0.18 * (1e-4f64).log10() / (1.0 + 0.4 * x);
+            assert!((c_f0(re, 1e-5) - plain.max(sup)).abs() < 1e-12, "{re}");
+        }
     }
 
     #[test]

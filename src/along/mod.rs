@@ -163,7 +163,8 @@ pub fn stage_along_wind(
         length_scale_m: l_s,
         log_decrement: delta,
     });
-    let points = line_load::along_wind_loads(model, &profile, factor.cscd, &cf);
+    let grid = line_load::LoadGrid::new(model, &profile, &cf);
+    let points = grid.points(factor.cscd);
     let moment_nm: Vec<(f64, f64)> = points.iter().map(|p| (p.z_m, p.moment_nm)).collect();
 
     let (cscd_bg, k_p_bg) = structural_factor::background_only(i_s, factor.background_factor);
@@ -173,11 +174,7 @@ pub fn stage_along_wind(
         .filter(|m| !m.loads.is_empty() && m.loads.len() == model.z_m.len())
         .map(|m| {
             let speed_factor = m.critical_speed_m_s / profile.mean_speed_m_s(m.reference_height_m);
-            let at_crit = profile.scaled(speed_factor);
-            let along: Vec<(f64, f64)> = line_load::along_wind_loads(model, &at_crit, cscd_bg, &cf)
-                .iter()
-                .map(|p| (p.z_m, p.moment_nm))
-                .collect();
+            let along = grid.moments(speed_factor, cscd_bg);
             let across: Vec<(f64, f64)> = m.loads.iter().map(|l| (l.z_m, l.moment_nm)).collect();
             ModeCombination {
                 mode: m.mode,

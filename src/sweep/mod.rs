@@ -151,6 +151,10 @@ pub struct ModeRow {
     /// [`crate::remedy::required::MAX_LOG_DECREMENT`] suffices.
     pub required_log_decrement: Option<f64>,
     pub verdict: Verdict,
+    /// Base moment of the vortex case at v_crit, sqrt(M_across^2 + M_along,crit^2), over the
+    /// along-wind design base moment (EN 1991-1-4 6.3.1); `None` without the EN site wind
+    /// or when the mode has no across-wind load.
+    pub combined_to_along_base_ratio: Option<f64>,
 }
 
 /// What one variant gave.
@@ -179,6 +183,8 @@ pub enum VariantError {
     Modal(#[from] ModalError),
     #[error(transparent)]
     Wind(#[from] wind::WindError),
+    #[error(transparent)]
+    Along(#[from] crate::along::AlongError),
 }
 
 /// Analyses one valid variant exactly as `check` does (default mesh, `vortex.modes` modes).
@@ -194,13 +200,21 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
         return Ok(modal_rows(&stages));
     }
     let vortex = wind::check_all(case, &stages)?;
+    let along = crate::along::check_all(case, &stages, &vortex)?;
     let wind = &vortex.wind;
     Ok(vortex
         .stages
         .iter()
         .zip(&stages)
-        .flat_map(|(s, sm)| {
+        .enumerate()
+        .flat_map(|(i, (s, sm))| {
+            let along = along.as_ref().and_then(|a| a.get(i));
             s.modes.iter().map(move |m| {
+                let ratio = along.and_then(|a| {
+                    let design = a.moment_nm.first()?.1;
+                    let comb = a.modes.iter().find(|c| c.mode == m.mode)?;
+                    Some(comb.combined_moment_nm.first()?.1 / design)
+                });
                 let g = m.governing_summary();
                 ModeRow {
                     stage: s.stage.clone(),
@@ -213,6 +227,7 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
                     max_stress_pa: g.max_stress_pa,
                     required_log_decrement: required_log_decrement(case, wind, sm, m),
                     verdict: m.verdict.clone(),
+                    combined_to_along_base_ratio: ratio,
                 }
             })
         })
@@ -235,6 +250,7 @@ fn modal_rows(stages: &[StageModes]) -> Vec<ModeRow> {
                 max_stress_pa: None,
                 required_log_decrement: None,
                 verdict: Verdict::NotJudged,
+                combined_to_along_base_ratio: None,
             })
         })
         .collect()
