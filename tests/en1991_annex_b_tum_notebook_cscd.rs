@@ -1,7 +1,7 @@
 //! c_s c_d by EN 1991-1-4 Annex B procedure 1 against a published worked example.
 //!
 //! Source: TU Munich, Structural Wind Engineering WS20-21, public notebook
-//! `mpentek/SWELecture`, `Ex04WindEffOnStructHighrise/swe_ws2021_4_2_structural_effects.ipynb`
+//! of GitHub user `mpentek`, exercise 4, `swe_ws2021_4_2_structural_effects.ipynb`
 //! ("Alongwind response - computation of c_s c_d"): 600 m prototype building, b = 60 m,
 //! terrain category IV with the German National Annex profile (v_m, I_v, L from Tables
 //! NA.B.2 / NA.C.1), damping ratio 1.5 %, n_1 = 46 / h (EN 1991-1-4 F.2).

@@ -3,8 +3,8 @@
 //! - c_f,0 (Figure 7.28): the figure's two published curves, as written in two public
 //!   implementations (`MEMAndersen/DynSys` `dynsys/wind_section.py`, which re-plots Figure
 //!   7.28 from them, and `xcfem/xc` `python_modules/actions/wind/ec1_wind.py`):
-//!   c_f,0 = max( clamp(0.11 / (Re/1e6)^1.4, 0.4, 1.2),
-//!                1.2 + 0.18 log10(10 k/b) / (1 + 0.4 log10(Re/1e6)) ), k/b >= 1e-5
+//!   c_f,0 = max(clamp(0.11 / (Re/1e6)^1.4, 0.4, 1.2),
+//!   1.2 + 0.18 log10(10 k/b) / (1 + 0.4 log10(Re/1e6))), k/b >= 1e-5
 //!   (the lowest curve of the figure). Re = b v / nu with v the peak velocity
 //!   sqrt(2 q_p / rho) (7.15). The figure is drawn up to Re = 1e7; above it we keep the
 //!   expression, which rises slowly towards 1.2 (conservative, our choice).

@@ -11,8 +11,8 @@
 //!                                                                               (B.7, B.8)
 //! delta = delta_s + delta_a (F.15); delta_a = c_f rho b v_m(z_s) / (2 n m_e)    (F.18)
 //!
-//! Read in the public TU Munich Structural Wind Engineering notebook (`mpentek/SWELecture`,
-//! `Ex04WindEffOnStructHighrise/swe_ws2021_4_2_structural_effects.ipynb`) for (B.2)-(B.8)
+//! Read in the public TU Munich Structural Wind Engineering notebook (GitHub user
+//! `mpentek`, exercise 4 notebook `swe_ws2021_4_2_structural_effects.ipynb`) for (B.2)-(B.8)
 //! and k_p; that notebook uses the German National Annex denominator 1 + 6 I_v, the EN
 //! recommended (6.1) has 1 + 7 I_v (the 7 of (4.8)), so the denominator factor is a parameter
 //! here. (F.15), (F.18) and T = 600 s: from memory. The background-only factor used at the
