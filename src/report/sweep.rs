@@ -43,7 +43,6 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
         "max_stress_pa",
         "required_log_decrement",
         "verdict",
-        "combined_to_along_base_ratio",
     ] {
         header.push(h.to_string());
     }
@@ -65,7 +64,6 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
                         r.max_stress_pa.map(num).unwrap_or_default(),
                         r.required_log_decrement.map(num).unwrap_or_default(),
                         r.verdict.to_string(),
-                        r.combined_to_along_base_ratio.map(num).unwrap_or_default(),
                     ]);
                     w.write_record(&rec).map_err(fmt_err)?;
                 }
@@ -80,7 +78,6 @@ pub fn sweep_csv(vary: &[Vary], variants: &[Variant]) -> Result<Vec<u8>, ReportE
                 // Empty cells for every result column but the verdict.
                 rec.extend(std::iter::repeat_n(String::new(), 9));
                 rec.push(format!("{word}: {}", msg.replace('\n', "; ")));
-                rec.push(String::new());
                 w.write_record(&rec).map_err(fmt_err)?;
             }
         }
