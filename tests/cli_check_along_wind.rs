@@ -34,6 +34,10 @@ fn en_site_wind_gives_along_wind_outputs() {
     assert!(stdout.contains("governs"), "{stdout}");
     let csv = std::fs::read_to_string(out.join("along_wind.csv")).unwrap();
     assert_eq!(csv.lines().next().unwrap(), ALONG_HEADER);
+    let svg = std::fs::read_to_string(out.join("along_moments.svg")).unwrap();
+    assert!(svg.starts_with("<svg") || svg.starts_with("<?xml"));
+    let html = std::fs::read_to_string(out.join("report.html")).unwrap();
+    assert!(html.contains("Along-wind action and the vortex case"));
     // The base row of the first stage carries the largest moment of that stage.
     let first: Vec<f64> = csv
         .lines()
@@ -76,4 +80,5 @@ fn without_terrain_category_no_along_wind_file() {
         .code(1); // the demo exceeds its criteria in some modes
     assert!(out.join("vortex.csv").exists());
     assert!(!out.join("along_wind.csv").exists());
+    assert!(!out.join("along_moments.svg").exists());
 }

@@ -417,8 +417,9 @@ pub fn stage_note_files(
 }
 
 /// Every file `check` writes (their destinations are checked before the analysis).
-pub const CHECK_FILES: [&str; 16] = [
+pub const CHECK_FILES: [&str; 17] = [
     "along_wind.csv",
+    "along_moments.svg",
     "modes.csv",
     "mode_shapes.csv",
     "sections.csv",

@@ -79,6 +79,7 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
             "<section class=\"major\">\n<h2>{next} Along-wind action and the vortex case</h2>"
         );
         along::write(&mut o, along);
+        put(&mut o, "along_moments.svg");
         o.push_str("</section>\n");
         next += 1;
     }
