@@ -64,6 +64,7 @@ fn case() -> Case {
             c_prob_k: 0.2,
             c_prob_n: 0.5,
         }),
+        along_wind: None,
         vortex: Vortex {
             method: VortexMethod::En1991E1,
             strouhal: None,

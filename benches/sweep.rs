@@ -1,12 +1,15 @@
 //! Sweep speed: 10 000 variants x 2 stages x 3 modes with approach 1 (the invented demo stack
 //! without its partial-height stage), and the cost breakdown of one stage analysis: mesh and
-//! section integration, eigen-solve, modal post-processing, wind checks, and the per-variant
+//! section integration, eigen-solve, modal post-processing, wind checks, the EN along-wind
+//! action with its combination at the critical speeds (the demo's [wind] gets
+//! terrain_category "II" and basic_speed_m_s 26 for this), and the per-variant
 //! case-table edit + validation. Prints a table; run with `cargo bench --bench sweep`.
 //! Figures are wall-clock medians on the current machine.
 
 use std::path::Path;
 use std::time::{Duration, Instant};
 
+use stackwake::along::stage_along_wind;
 use stackwake::commands::sweep::run_grid;
 use stackwake::fem::{lowest_modes, BeamModel};
 use stackwake::input::{keypath, parse_case_table, parse_case_text, DEMO_CASE_TOML};
@@ -44,6 +47,11 @@ fn main() {
     if let Some(toml::Value::Array(stages)) = table.get_mut("stage") {
         stages.remove(0);
     }
+    // The EN site wind, so the sweep also computes the along-wind action (EN 1991-1-4).
+    if let Some(toml::Value::Table(w)) = table.get_mut("wind") {
+        w.insert("terrain_category".into(), toml::Value::String("II".into()));
+        w.insert("basic_speed_m_s".into(), toml::Value::Float(26.0));
+    }
     let case = parse_case_table(table.clone(), Path::new("."), "demo").expect("valid");
     assert_eq!(case.stages.len(), 2);
     let stage = case.stages[1].clone();
@@ -65,12 +73,17 @@ fn main() {
     let t_wind = time(runs, || {
         std::hint::black_box(wind::check_stage(&case, &sm).unwrap());
     });
+    let sv = wind::check_stage(&case, &sm).unwrap();
+    let spec = case.along_wind.expect("EN site wind");
+    let t_along = time(runs, || {
+        std::hint::black_box(stage_along_wind(&case, &spec, &sm, &sv, 1.0).unwrap());
+    });
     let t_input = time(runs, || {
         let mut t = table.clone();
         keypath::set_number(&mut t, "shell.elastic_modulus_gpa", 31.0).unwrap();
         std::hint::black_box(parse_case_table(t, Path::new("."), "demo").expect("valid"));
     });
-    let total = t_mesh + t_eig + t_post + t_wind;
+    let total = t_mesh + t_eig + t_post + t_wind + t_along;
     println!(
         "one stage analysis (lined, {} elements, {modes} modes), single thread, median of {runs}",
         beam.elements.len()
@@ -81,6 +94,7 @@ fn main() {
         ("eigen-solve (subspace + Sturm check)", t_eig),
         ("modal post-processing (shapes, m_e)", t_post),
         ("wind checks (approach 1/2, GB, loads)", t_wind),
+        ("along-wind action + combination (EN)", t_along),
     ] {
         println!("{name:<44} {:>10.1}", us(d));
     }

@@ -24,6 +24,9 @@ pub struct Case {
     /// Site wind; `None` when the case file has no `[wind]` (modal commands only: the
     /// commands that run wind checks refuse such a case).
     pub wind: Option<Wind>,
+    /// EN 1991-1-4 site wind and along-wind settings; `None` when `[wind]` gives no
+    /// `terrain_category` (no along-wind action is computed then).
+    pub along_wind: Option<AlongWindSpec>,
     pub vortex: Vortex,
     pub criteria: Criteria,
     /// Aeroelastic model planning inputs (`[model]`), if given.
@@ -301,6 +304,34 @@ impl Wind {
             ..*self
         }
     }
+}
+
+/// Terrain category of EN 1991-1-4 Table 4.1 (its table values: `along::terrain`).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub enum TerrainCategory {
+    Zero,
+    I,
+    II,
+    III,
+    IV,
+}
+
+/// EN 1991-1-4 site wind (`[wind]` EN keys), shell roughness and `[along_wind]` settings.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct AlongWindSpec {
+    pub terrain: TerrainCategory,
+    /// `basic_speed_m_s`, m/s (> 0); v_b = c_dir c_season basic_speed_m_s (4.1).
+    pub basic_speed_m_s: f64,
+    /// c_dir (default 1, EN 1991-1-4 4.2 Note 2 recommended value).
+    pub c_dir: f64,
+    /// c_season (default 1, EN 1991-1-4 4.2 Note 3 recommended value).
+    pub c_season: f64,
+    /// c_o, constant with height (default 1).
+    pub orography_factor: f64,
+    /// Equivalent surface roughness k of the shell, m (> 0).
+    pub surface_roughness_m: f64,
+    /// User override of c_f; `None` = EN 1991-1-4 7.9.2.
+    pub force_coefficient: Option<f64>,
 }
 
 /// Vortex-shedding method that governs the verdict (the others are reported alongside).

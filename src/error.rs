@@ -16,6 +16,9 @@ pub enum Error {
     /// The wind checks cannot run (no `[wind]` in the case).
     #[error(transparent)]
     Wind(#[from] crate::wind::WindError),
+    /// The along-wind action could not be computed.
+    #[error(transparent)]
+    Along(#[from] crate::along::AlongError),
     /// A wind-tunnel model plan could not be made (`scale`).
     #[error(transparent)]
     Similitude(#[from] crate::similitude::SimilitudeError),

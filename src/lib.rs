@@ -13,6 +13,7 @@
 // Numerical kernels index several arrays in lockstep; iterator chains would hide that.
 #![allow(clippy::needless_range_loop)]
 
+pub mod along;
 pub mod case;
 pub mod commands;
 pub mod error;

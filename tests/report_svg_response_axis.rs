@@ -12,6 +12,7 @@ use stackwake::report::ReportInput;
 fn speed_axis_is_the_shedding_height_speed_and_runs_past_the_design_speed() {
     let r = analyse(stackwake::input::demo_case(), CheckOptions::default()).unwrap();
     let input = ReportInput {
+        along: None,
         case: &r.case,
         stages: &r.stages,
         vortex: &r.vortex,

@@ -32,6 +32,8 @@ pub struct CheckResults {
     pub case: Case,
     pub stages: Vec<StageModes>,
     pub vortex: VortexResults,
+    /// EN 1991-1-4 along-wind action per stage; `None` without `wind.terrain_category`.
+    pub along: Option<Vec<crate::along::StageAlongWind>>,
     /// Required damping of failing modes and the case's `[remedy]` devices, re-checked.
     pub remedies: RemedyResults,
 }
@@ -56,10 +58,12 @@ pub fn analyse(case: Case, options: CheckOptions) -> Result<CheckResults, Error>
     let stages = analyse_case(&case, modal)?;
     let vortex = wind::check_all(&case, &stages)?;
     let remedies = remedy::compute(&case, &stages, &vortex);
+    let along = crate::along::check_all(&case, &stages, &vortex)?;
     Ok(CheckResults {
         case,
         stages,
         vortex,
+        along,
         remedies,
     })
 }
@@ -263,6 +267,82 @@ pub fn stage_vortex_files(staging: &mut Staging, v: &VortexResults) -> Result<()
     Ok(())
 }
 
+/// One row of along_wind.csv (contract columns).
+#[derive(Debug, Clone, Serialize)]
+pub struct AlongRow {
+    pub stage: String,
+    pub z_m: f64,
+    pub mean_speed_m_s: f64,
+    pub turbulence_intensity: f64,
+    pub peak_pressure_pa: f64,
+    pub force_coefficient: f64,
+    pub line_load_n_m: f64,
+    pub shear_n: f64,
+    pub moment_nm: f64,
+    pub stress_pa: f64,
+}
+
+/// Writes along_wind.csv into the staging folder.
+pub fn stage_along_file(
+    staging: &mut Staging,
+    along: &[crate::along::StageAlongWind],
+) -> Result<(), Error> {
+    let rows: Vec<AlongRow> = along
+        .iter()
+        .flat_map(|s| {
+            let stage = safe_text(&s.stage);
+            s.points.iter().map(move |p| AlongRow {
+                stage: stage.clone(),
+                z_m: p.z_m,
+                mean_speed_m_s: p.mean_speed_m_s,
+                turbulence_intensity: p.turbulence_intensity,
+                peak_pressure_pa: p.peak_pressure_pa,
+                force_coefficient: p.force_coefficient,
+                line_load_n_m: p.line_load_n_m,
+                shear_n: p.shear_n,
+                moment_nm: p.moment_nm,
+                stress_pa: p.stress_pa,
+            })
+        })
+        .collect();
+    staging.write("along_wind.csv", &to_csv("along_wind.csv", &rows)?)?;
+    Ok(())
+}
+
+/// The terminal's along-wind lines: every factor of c_s c_d, the base moment and which
+/// case governs, per stage.
+pub fn along_table(along: &[crate::along::StageAlongWind]) -> String {
+    let mut out = String::from(
+        "\nalong-wind design action (EN 1991-1-4 6.3.1 + Annex B procedure 1, EN site wind) and \
+         the vortex case at v_crit (sqrt(M_across^2 + M_along,crit^2))\n",
+    );
+    for s in along {
+        let f = &s.factor;
+        let base = s.moment_nm.first().map_or(0.0, |p| p.1);
+        out.push_str(&format!(
+            "  {}: z_s {:.1} m, v_m {:.2} m/s, I_v {:.3}, L {:.1} m, c_f {:.3}, delta {:.4} \
+             (s {:.4} + a {:.4}), B^2 {:.3}, R^2 {:.3}, k_p {:.3}, c_s c_d {:.3}, \
+             M_base {:.4e} N m\n    {}\n",
+            s.stage,
+            s.reference_height_m,
+            s.mean_speed_at_reference_m_s,
+            s.turbulence_intensity_at_reference,
+            s.length_scale_m,
+            s.force_coefficient_at_reference,
+            s.log_decrement_total,
+            s.log_decrement_structural,
+            s.log_decrement_aerodynamic,
+            f.background_factor,
+            f.resonance_factor,
+            f.peak_factor,
+            f.cscd,
+            base,
+            s.governs.statement
+        ));
+    }
+    out
+}
+
 /// All warnings of the run, each prefixed with its stage and the modes it concerns; a
 /// message repeated for several modes of a stage is given once.
 pub fn warnings(results: &CheckResults) -> Vec<String> {
@@ -278,6 +358,9 @@ pub fn warnings(results: &CheckResults) -> Vec<String> {
     }
     out.extend(results.vortex.warnings.iter().cloned());
     out.extend(results.remedies.warnings.iter().cloned());
+    for s in results.along.iter().flatten() {
+        out.extend(s.warnings.iter().cloned());
+    }
     out.extend(crate::report::station_table::station_count_warning(
         &results.case.shell.stations,
     ));
@@ -354,6 +437,7 @@ pub fn stage_note_files(
         case: &results.case,
         stages: &results.stages,
         vortex: &results.vortex,
+        along: results.along.as_deref(),
         warnings,
         remedies: Some(&results.remedies),
         model_plan_html: model_plan_html.as_deref(),
@@ -368,7 +452,9 @@ pub fn stage_note_files(
 }
 
 /// Every file `check` writes (their destinations are checked before the analysis).
-pub const CHECK_FILES: [&str; 15] = [
+pub const CHECK_FILES: [&str; 17] = [
+    "along_wind.csv",
+    "along_moments.svg",
     "modes.csv",
     "mode_shapes.csv",
     "sections.csv",
@@ -406,6 +492,9 @@ pub fn run(
     )?;
     stage_modal_files(&mut staging, &results.stages)?;
     stage_vortex_files(&mut staging, &results.vortex)?;
+    if let Some(along) = &results.along {
+        stage_along_file(&mut staging, along)?;
+    }
     let mut warnings = warnings(&results);
     // The case's [model] table adds the aeroelastic model plan to the note; a plan that
     // cannot be made is a warning here (`stackwake scale` reports it as an error).
@@ -442,6 +531,9 @@ pub fn run(
     stdout.push_str(
         "* lock_in_band: our own addition, not a code method: heights where b(z) n / St is below the mean wind speed.\n",
     );
+    if let Some(along) = &results.along {
+        stdout.push_str(&along_table(along));
+    }
     if !results.remedies.is_empty() {
         stdout.push_str(
             "\nremedies (each re-checked with the same EN 1991-1-4 Annex E functions; before = unmitigated)\n",

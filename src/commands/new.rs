@@ -271,6 +271,7 @@ mod tests {
             ("base", serde_fields::<RawBase>()),
             ("stage", serde_fields::<RawStage>()),
             ("wind", serde_fields::<RawWind>()),
+            ("along_wind", serde_fields::<RawAlongWind>()),
             ("vortex", serde_fields::<RawVortex>()),
             ("vortex.group", serde_fields::<RawGroup>()),
             ("criteria", serde_fields::<RawCriteria>()),

@@ -65,6 +65,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     // [wind] is optional here: only the commands that run wind checks need it, and they
     // say so (`modes` and `scale` run without it).
     let wind = decode_optional_table(table.remove("wind"), "wind", &mut issues);
+    let along_wind = decode_optional_table(table.remove("along_wind"), "along_wind", &mut issues);
     let vortex = decode_optional_table(table.remove("vortex"), "vortex", &mut issues);
     let criteria = decode_optional_table(table.remove("criteria"), "criteria", &mut issues);
     let model = decode_optional_table(table.remove("model"), "model", &mut issues);
@@ -75,7 +76,8 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
         return Err(issues);
     }
     match (
-        shell, lining, point_mass, base, stage, wind, vortex, criteria, model, remedy, project,
+        shell, lining, point_mass, base, stage, wind, along_wind, vortex, criteria, model, remedy,
+        project,
     ) {
         (
             Some(shell),
@@ -84,6 +86,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
             Some(base),
             stage,
             Some(wind),
+            Some(along_wind),
             Some(vortex),
             Some(criteria),
             Some(model),
@@ -105,6 +108,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
                 base,
                 stage,
                 wind,
+                along_wind,
                 vortex: vortex.unwrap_or_default(),
                 criteria: criteria.unwrap_or_default(),
                 model,

@@ -24,6 +24,8 @@ pub struct RawCase {
     pub stage: Option<Vec<RawStage>>,
     /// `None`: no `[wind]` (enough for `modes` and `scale`; the wind checks refuse it).
     pub wind: Option<RawWind>,
+    /// `[along_wind]`: optional settings of the EN along-wind action.
+    pub along_wind: Option<RawAlongWind>,
     #[serde(default)]
     pub vortex: RawVortex,
     #[serde(default)]
@@ -42,6 +44,7 @@ pub const CASE_KEYS: &[&str] = &[
     "base",
     "stage",
     "wind",
+    "along_wind",
     "vortex",
     "criteria",
     "model",
@@ -69,6 +72,8 @@ pub struct RawShell {
     pub beam: Option<RawBeam>,
     pub stations: Option<Vec<RawStation>>,
     pub stations_csv: Option<String>,
+    /// Equivalent surface roughness k, mm (EN 1991-1-4 Table 7.13; along-wind only).
+    pub surface_roughness_mm: Option<f64>,
 }
 
 /// `beam = "timoshenko" | "euler-bernoulli"`.
@@ -155,6 +160,31 @@ pub struct RawWind {
     pub kinematic_viscosity_m2_s: Option<f64>,
     pub c_prob_k: Option<f64>,
     pub c_prob_n: Option<f64>,
+    /// EN 1991-1-4 site wind for the along-wind action: "0" | "I" | "II" | "III" | "IV".
+    pub terrain_category: Option<RawTerrain>,
+    /// v_b (before c_dir, c_season), m/s.
+    pub basic_speed_m_s: Option<f64>,
+    pub orography_factor: Option<f64>,
+    pub c_dir: Option<f64>,
+    pub c_season: Option<f64>,
+}
+
+/// `terrain_category = "0" | "I" | "II" | "III" | "IV"` (EN 1991-1-4 Table 4.1).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize)]
+pub enum RawTerrain {
+    #[serde(rename = "0")]
+    Zero,
+    I,
+    II,
+    III,
+    IV,
+}
+
+/// `[along_wind]`.
+#[derive(Debug, Clone, Default, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawAlongWind {
+    pub force_coefficient: Option<f64>,
 }
 
 /// `method = "en1991-e1" | "en1991-e2" | "gb50009-h1"`.

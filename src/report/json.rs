@@ -7,6 +7,7 @@
 use serde::Serialize;
 
 use super::{ReportError, ReportInput, CAUTIONS};
+use crate::along::StageAlongWind;
 use crate::case::Case;
 use crate::modal::CompletenessCheck;
 use crate::wind::VortexResults;
@@ -34,6 +35,50 @@ pub struct StageSummary<'a> {
     pub elements: usize,
     pub modes: Vec<ModeSummary>,
     pub completeness: &'a CompletenessCheck,
+    /// EN 1991-1-4 along-wind action of the stage (absent without `wind.terrain_category`).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub along_wind: Option<AlongStageSummary<'a>>,
+}
+
+/// The along-wind factors of one stage, the combined moments per mode, and every
+/// intermediate value (`detail`).
+#[derive(Debug, Serialize)]
+pub struct AlongStageSummary<'a> {
+    pub cscd: f64,
+    pub background_factor: f64,
+    pub resonance_factor: f64,
+    pub peak_factor: f64,
+    pub log_decrement_total: f64,
+    pub governs: &'a str,
+    pub combined: Vec<CombinedSummary<'a>>,
+    pub detail: &'a StageAlongWind,
+}
+
+/// (z_m, moment_nm) pairs of sqrt(M_across^2 + M_along,crit^2) for one mode.
+#[derive(Debug, Serialize)]
+pub struct CombinedSummary<'a> {
+    pub mode: usize,
+    pub combined_moment_nm: &'a [(f64, f64)],
+}
+
+fn along_summary(a: &StageAlongWind) -> AlongStageSummary<'_> {
+    AlongStageSummary {
+        cscd: a.factor.cscd,
+        background_factor: a.factor.background_factor,
+        resonance_factor: a.factor.resonance_factor,
+        peak_factor: a.factor.peak_factor,
+        log_decrement_total: a.log_decrement_total,
+        governs: &a.governs.statement,
+        combined: a
+            .modes
+            .iter()
+            .map(|m| CombinedSummary {
+                mode: m.mode,
+                combined_moment_nm: &m.combined_moment_nm,
+            })
+            .collect(),
+        detail: a,
+    }
 }
 
 /// One mode, without its shape.
@@ -56,7 +101,8 @@ pub fn summary<'a>(input: &ReportInput<'a>) -> Summary<'a> {
         stages: input
             .stages
             .iter()
-            .map(|s| StageSummary {
+            .enumerate()
+            .map(|(i, s)| StageSummary {
                 name: &s.stage.name,
                 height_m: s.model.height_m(),
                 elements: s.elements,
@@ -72,6 +118,7 @@ pub fn summary<'a>(input: &ReportInput<'a>) -> Summary<'a> {
                     })
                     .collect(),
                 completeness: &s.check,
+                along_wind: input.along.and_then(|a| a.get(i)).map(along_summary),
             })
             .collect(),
         vortex: input.vortex,

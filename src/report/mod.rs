@@ -29,6 +29,8 @@ pub struct ReportInput<'a> {
     pub case: &'a Case,
     pub stages: &'a [StageModes],
     pub vortex: &'a VortexResults,
+    /// EN along-wind action per stage (same order as `stages`), when the case asks for it.
+    pub along: Option<&'a [crate::along::StageAlongWind]>,
     pub warnings: &'a [String],
     /// Remedies re-checked next to the unmitigated results, when any were computed.
     pub remedies: Option<&'a crate::remedy::RemedyResults>,

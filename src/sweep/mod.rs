@@ -154,6 +154,10 @@ pub struct ModeRow {
     /// Whether damping was needed and could be sized (see [`DampingRemedy`]).
     pub damping_remedy: DampingRemedy,
     pub verdict: Verdict,
+    /// Base moment of the vortex case at v_crit, sqrt(M_across^2 + M_along,crit^2), over the
+    /// along-wind design base moment (EN 1991-1-4 6.3.1); `None` without the EN site wind
+    /// or when the mode has no across-wind load.
+    pub combined_to_along_base_ratio: Option<f64>,
 }
 
 /// The damping answer of a mode in a sweep row.
@@ -209,6 +213,8 @@ pub enum VariantError {
     Modal(#[from] ModalError),
     #[error(transparent)]
     Wind(#[from] wind::WindError),
+    #[error(transparent)]
+    Along(#[from] crate::along::AlongError),
 }
 
 /// Analyses one valid variant exactly as `check` does (default mesh, `vortex.modes` modes).
@@ -224,12 +230,20 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
         return Ok(modal_rows(&stages));
     }
     let vortex = wind::check_all(case, &stages)?;
+    let along = crate::along::check_all(case, &stages, &vortex)?;
     Ok(vortex
         .stages
         .iter()
         .zip(&stages)
-        .flat_map(|(s, sm)| {
+        .enumerate()
+        .flat_map(|(i, (s, sm))| {
+            let along = along.as_ref().and_then(|a| a.get(i));
             s.modes.iter().map(move |m| {
+                let ratio = along.and_then(|a| {
+                    let design = a.moment_nm.first()?.1;
+                    let comb = a.modes.iter().find(|c| c.mode == m.mode)?;
+                    Some(comb.combined_moment_nm.first()?.1 / design)
+                });
                 let g = m.governing_summary();
                 let need = required_log_decrement(case, &s.climate.wind, sm, m);
                 ModeRow {
@@ -244,6 +258,7 @@ pub fn analyse_variant(case: &Case) -> Result<Vec<ModeRow>, VariantError> {
                     required_log_decrement: need.log_decrement(),
                     damping_remedy: need.remedy(),
                     verdict: m.verdict.clone(),
+                    combined_to_along_base_ratio: ratio,
                 }
             })
         })
@@ -267,6 +282,7 @@ fn modal_rows(stages: &[StageModes]) -> Vec<ModeRow> {
                 required_log_decrement: None,
                 damping_remedy: DampingRemedy::NotNeeded,
                 verdict: Verdict::NotJudged,
+                combined_to_along_base_ratio: None,
             })
         })
         .collect()

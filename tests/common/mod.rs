@@ -49,6 +49,7 @@ pub fn shell_case(
             c_prob_k: 0.2,
             c_prob_n: 0.5,
         }),
+        along_wind: None,
         vortex: Vortex {
             method: VortexMethod::En1991E1,
             strouhal: None,

@@ -47,6 +47,7 @@ pub fn case(wind: Wind, method: VortexMethod, criteria: Criteria) -> Case {
         base: None,
         stages: vec![stage()],
         wind: Some(wind),
+        along_wind: None,
         vortex: Vortex {
             method,
             strouhal: None,

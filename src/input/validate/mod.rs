@@ -16,18 +16,19 @@
 use std::collections::HashSet;
 
 use crate::case::{
-    Arrangement, BaseSprings, BeamTheory, Case, Criteria, Group, Lining, LiningMass, ModelSpec,
-    PointMass, Profile, RemedySpec, Shell, Stage, Station, StrakesSpec, TmdMass, TmdSpec, Vortex,
-    VortexMethod, Wind,
+    AlongWindSpec, Arrangement, BaseSprings, BeamTheory, Case, Criteria, Group, Lining, LiningMass,
+    ModelSpec, PointMass, Profile, RemedySpec, Shell, Stage, Station, StrakesSpec, TerrainCategory,
+    TmdMass, TmdSpec, Vortex, VortexMethod, Wind,
 };
 
 use super::issue::ValidationIssue;
 use super::raw::{
     RawArrangement, RawBeam, RawCase, RawLining, RawMethod, RawModel, RawProfile, RawRemedy,
-    RawStation, RawVortex, RawWind,
+    RawStation, RawTerrain, RawVortex, RawWind,
 };
 use super::stations_csv::CsvStations;
 
+mod along_wind;
 mod lining;
 mod model;
 mod remedy;
@@ -38,6 +39,7 @@ mod tests;
 mod vortex;
 mod wind;
 
+use along_wind::check_along_wind;
 use lining::check_lining;
 use model::check_model;
 use remedy::check_remedy;
@@ -249,6 +251,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     if let Some(Some(w)) = &wind {
         check_stage_c_prob(&mut c, raw, &stages, w);
     }
+    let along_wind = check_along_wind(&mut c, raw);
     let vortex = check_vortex(&mut c, &raw.vortex);
 
     let criteria = Criteria {
@@ -287,6 +290,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             base,
             stages,
             wind: wind.flatten(),
+            along_wind,
             vortex,
             criteria,
             model,

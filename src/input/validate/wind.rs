@@ -90,3 +90,90 @@ pub(super) fn check_wind(c: &mut Checker, w: &RawWind) -> Option<Wind> {
         c_prob_n,
     })
 }
+
+/// The EN 1991-1-4 site-wind keys of `[wind]` (terrain category and basic speed), checked
+/// here; combined with the shell roughness and `[along_wind]` in `along_wind.rs`.
+pub(super) struct EnWindKeys {
+    pub terrain: TerrainCategory,
+    pub basic_speed_m_s: f64,
+    pub orography_factor: f64,
+    pub c_dir: f64,
+    pub c_season: f64,
+}
+
+/// `None` when `[wind]` gives no `terrain_category` (then none of the EN keys may appear) or
+/// when a key fails.
+pub(super) fn check_en_wind(c: &mut Checker, w: &RawWind) -> Option<EnWindKeys> {
+    let before = c.issues.len();
+    let Some(raw_terrain) = w.terrain_category else {
+        for (key, v) in [
+            ("basic_speed_m_s", w.basic_speed_m_s),
+            ("orography_factor", w.orography_factor),
+            ("c_dir", w.c_dir),
+            ("c_season", w.c_season),
+        ] {
+            if let Some(v) = v {
+                c.fail(
+                    format!("wind.{key}"),
+                    v,
+                    "belongs to the EN site wind of the along-wind action: give \
+                     wind.terrain_category too (\"0\", \"I\", \"II\", \"III\" or \"IV\")",
+                );
+            }
+        }
+        return None;
+    };
+    let terrain = match raw_terrain {
+        RawTerrain::Zero => TerrainCategory::Zero,
+        RawTerrain::I => TerrainCategory::I,
+        RawTerrain::II => TerrainCategory::II,
+        RawTerrain::III => TerrainCategory::III,
+        RawTerrain::IV => TerrainCategory::IV,
+    };
+    let v_path = "wind.basic_speed_m_s";
+    let basic_speed_m_s = match w.basic_speed_m_s {
+        Some(v) => {
+            if c.positive(v_path, v) && v > 100.0 {
+                c.fail(v_path, v, "over 100 m/s: is it in km/h? give m/s");
+            }
+            v
+        }
+        None => {
+            c.key(
+                v_path,
+                "missing; wind.terrain_category needs the basic wind speed v_b in m/s \
+                 (EN 1991-1-4 4.2, from the National Annex wind map)",
+            );
+            f64::NAN
+        }
+    };
+    let orography_factor = w.orography_factor.unwrap_or(1.0);
+    if c.positive("wind.orography_factor", orography_factor) && orography_factor > 3.0 {
+        c.fail(
+            "wind.orography_factor",
+            orography_factor,
+            "must be at most 3 (EN 1991-1-4 Annex A.3 gives c_o of about 1 to 1.6)",
+        );
+    }
+    let mut factor = |key: &str, v: Option<f64>| -> f64 {
+        let v = v.unwrap_or(1.0);
+        let path = format!("wind.{key}");
+        if c.positive(&path, v) && v > 1.0 {
+            c.fail(
+                path,
+                v,
+                "must be at most 1 (EN 1991-1-4 4.2; recommended value 1)",
+            );
+        }
+        v
+    };
+    let c_dir = factor("c_dir", w.c_dir);
+    let c_season = factor("c_season", w.c_season);
+    (c.issues.len() == before).then_some(EnWindKeys {
+        terrain,
+        basic_speed_m_s,
+        orography_factor,
+        c_dir,
+        c_season,
+    })
+}

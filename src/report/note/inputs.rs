@@ -221,6 +221,35 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
             t(format!("{} in line, spacing {:.1} m", g.count, g.spacing_m)),
         ]);
     }
+    if let Some(a) = &c.along_wind {
+        rows.push(vec![
+            t("along-wind (EN 1991-1-4): terrain category"),
+            t(a.terrain.key()),
+        ]);
+        rows.push(vec![
+            t("along-wind: basic speed v_b,0 (m/s)"),
+            n(num(a.basic_speed_m_s, 2)),
+        ]);
+        rows.push(vec![
+            t("along-wind: c_dir, c_season, c_o (-)"),
+            t(format!(
+                "{}, {}, {}",
+                num(a.c_dir, 2),
+                num(a.c_season, 2),
+                num(a.orography_factor, 2)
+            )),
+        ]);
+        rows.push(vec![
+            t("along-wind: surface roughness k (mm)"),
+            n(num(a.surface_roughness_m * 1e3, 3)),
+        ]);
+        rows.push(vec![
+            t("along-wind: force coefficient c_f (-)"),
+            t(a.force_coefficient.map_or("EN 1991-1-4 7.9.2".into(), |v| {
+                format!("{} (user)", num(v, 3))
+            })),
+        ]);
+    }
     let cr = &c.criteria;
     rows.push(vec![
         t("criterion: tip amplitude (m)"),

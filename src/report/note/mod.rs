@@ -11,6 +11,7 @@
 //!
 //! Headings and layout are our own. Units: SI, with the unit in every column head.
 
+mod along;
 mod comparison;
 mod inputs;
 mod loads;
@@ -72,6 +73,16 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
     put(&mut o, "envelopes.svg");
     o.push_str("</section>\n");
     let mut next = 8;
+    if let Some(along) = input.along {
+        let _ = writeln!(
+            o,
+            "<section class=\"major\">\n<h2>{next} Along-wind action and the vortex case</h2>"
+        );
+        along::write(&mut o, along);
+        put(&mut o, "along_moments.svg");
+        o.push_str("</section>\n");
+        next += 1;
+    }
     if let Some(r) = input.remedies.filter(|r| !r.is_empty()) {
         let _ = writeln!(o, "<section class=\"major\">\n<h2>{next} Remedies</h2>");
         remedies::write(&mut o, r);

@@ -5,6 +5,7 @@
 //! Units: heights in m, speeds in m/s, amplitudes in m, moments in MN m, stresses in MPa,
 //! frequencies in Hz (the axis titles say so).
 
+pub mod along_moments;
 pub mod envelopes;
 pub mod modes;
 pub mod response;
@@ -28,14 +29,18 @@ pub struct Plot {
 
 /// Every plot, in the order of the note.
 pub fn all_plots(input: &ReportInput) -> Result<Vec<Plot>, ReportError> {
-    Ok(vec![
+    let mut plots = vec![
         shell::plot(input)?,
         modes::plot(input)?,
         wind_map::plot(input)?,
         response::plot(input)?,
         envelopes::plot(input)?,
         stages::plot(input)?,
-    ])
+    ];
+    if let Some(along) = input.along {
+        plots.push(along_moments::plot(input, along)?);
+    }
+    Ok(plots)
 }
 
 /// Panels per row for `n` stage panels.
