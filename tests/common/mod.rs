@@ -57,6 +57,7 @@ pub fn shell_case(
         model: None,
         remedy: None,
         project: Default::default(),
+        resistance: None,
         source: None,
     }
 }
