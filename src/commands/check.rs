@@ -14,6 +14,7 @@ use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::staging::Staging;
 use crate::report::table;
 use crate::report::{json, note, svg, ReportInput};
+use crate::resistance::{self, actions::ResistanceResults};
 use crate::wind::{self, VortexResults};
 
 use super::modes::{modes_table, stage_modal_files};
@@ -34,6 +35,8 @@ pub struct CheckResults {
     pub vortex: VortexResults,
     /// Required damping of failing modes and the case's `[remedy]` devices, re-checked.
     pub remedies: RemedyResults,
+    /// RC shell resistance and reinforcement fatigue; `None` without `[reinforcement]`.
+    pub resistance: Option<ResistanceResults>,
 }
 
 /// One row of lock_in.csv: our own addition (not a code method), the band of heights over
@@ -56,11 +59,20 @@ pub fn analyse(case: Case, options: CheckOptions) -> Result<CheckResults, Error>
     let stages = analyse_case(&case, modal)?;
     let vortex = wind::check_all(&case, &stages)?;
     let remedies = remedy::compute(&case, &stages, &vortex);
+    let resistance =
+        resistance::actions::check_case(&case, &stages, &vortex, &[]).map_err(|f| {
+            Error::Resistance {
+                stage: f.stage,
+                z_m: f.z_m,
+                source: f.error,
+            }
+        })?;
     Ok(CheckResults {
         case,
         stages,
         vortex,
         remedies,
+        resistance,
     })
 }
 
@@ -322,6 +334,7 @@ pub fn stage_note_files(
         warnings,
         remedies: Some(&results.remedies),
         model_plan_html: model_plan_html.as_deref(),
+        resistance: results.resistance.as_ref(),
     };
     let plots = svg::all_plots(&input)?;
     for p in &plots {
@@ -333,7 +346,7 @@ pub fn stage_note_files(
 }
 
 /// Every file `check` writes (their destinations are checked before the analysis).
-pub const CHECK_FILES: [&str; 15] = [
+pub const CHECK_FILES: [&str; 17] = [
     "modes.csv",
     "mode_shapes.csv",
     "sections.csv",
@@ -349,6 +362,8 @@ pub const CHECK_FILES: [&str; 15] = [
     "stages.svg",
     "report.html",
     "summary.json",
+    "resistance.csv",
+    "resistance.svg",
 ];
 
 /// Runs `check` on a case file (or the demo) and writes every output to `out`.
@@ -392,8 +407,17 @@ pub fn run(
         &note_date(),
     )?;
     stage_remedy_file(&mut staging, &results.remedies)?;
+    if let Some(r) = &results.resistance {
+        super::resistance::stage_resistance_file(&mut staging, r)?;
+    }
     let files = staging.commit()?;
     let mut stdout = format!("{}\n\n", results.case.title);
+    // The code verdict leads: utilisation and fatigue damage of the RC shell.
+    match &results.resistance {
+        Some(r) => stdout.push_str(&super::resistance::verdict_table(r)),
+        None => stdout.push_str(super::resistance::SKIPPED_LINE),
+    }
+    stdout.push('\n');
     stdout.push_str(&modes_table(&results.stages));
     stdout.push_str(&format!(
         "vortex shedding ({}; the others are reported for comparison)\n",
@@ -421,8 +445,9 @@ pub fn run(
     Ok(CommandReport {
         stdout,
         warnings,
-        check_failed: results.vortex.any_exceeds(),
-        not_judged: results.vortex.nothing_judged(),
+        check_failed: results.vortex.any_exceeds()
+            || results.resistance.as_ref().is_some_and(|r| r.any_exceeds()),
+        not_judged: results.vortex.nothing_judged() && results.resistance.is_none(),
         files,
     })
 }

@@ -4,7 +4,10 @@
 //!
 //! Pure numerics: no file access, SI units (N, m, Pa). Compression is positive throughout.
 
+pub mod actions;
+pub mod along_height;
 pub mod annulus;
+pub mod axial;
 pub mod cracked;
 pub mod fatigue;
 pub mod materials;
@@ -26,4 +29,7 @@ pub enum ResistanceError {
         min_n: f64,
         max_n: f64,
     },
+    /// No elastic cracked-section state carries the moment (fatigue check).
+    #[error("no elastic cracked-section state carries the moment {moment_nm:.6e} N m")]
+    NoElasticState { moment_nm: f64 },
 }

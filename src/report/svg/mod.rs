@@ -7,6 +7,7 @@
 
 pub mod envelopes;
 pub mod modes;
+pub mod resistance;
 pub mod response;
 pub mod shell;
 pub mod stages;
@@ -28,14 +29,16 @@ pub struct Plot {
 
 /// Every plot, in the order of the note.
 pub fn all_plots(input: &ReportInput) -> Result<Vec<Plot>, ReportError> {
-    Ok(vec![
+    let mut plots = vec![
         shell::plot(input)?,
         modes::plot(input)?,
         wind_map::plot(input)?,
         response::plot(input)?,
         envelopes::plot(input)?,
         stages::plot(input)?,
-    ])
+    ];
+    plots.extend(resistance::plot(input)?);
+    Ok(plots)
 }
 
 /// Panels per row for `n` stage panels.
