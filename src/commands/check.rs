@@ -384,6 +384,19 @@ pub fn run(
         Some(&results.vortex),
         Some(&results.remedies),
     )?;
+    if let Some(r) = &results.resistance {
+        if let Some((quantity, value)) = crate::report::finite::first_non_finite(r) {
+            return Err(crate::report::finite::NonFiniteResult {
+                place: "resistance".into(),
+                quantity,
+                value: format!("{value}"),
+                inputs: "[reinforcement], [shell] characteristic_strength_mpa, [design] and the \
+                         shell geometry"
+                    .into(),
+            }
+            .into());
+        }
+    }
     stage_modal_files(&mut staging, &results.stages)?;
     stage_vortex_files(&mut staging, &results.vortex)?;
     let mut warnings = warnings(&results);
