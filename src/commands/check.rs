@@ -250,7 +250,8 @@ pub fn warnings(results: &CheckResults) -> Vec<String> {
         &results.case,
         &results.stages,
     ));
-    if results.case.criteria.is_empty() {
+    // With [reinforcement] the resistance verdict is judged even without [criteria].
+    if results.case.criteria.is_empty() && results.resistance.is_none() {
         out.push(crate::wind::verdict::NOT_JUDGED_STATEMENT.to_string());
     }
     out.extend(results.vortex.warnings.iter().cloned());
