@@ -78,6 +78,7 @@ fn case() -> Case {
         model: None,
         remedy: None,
         project: Default::default(),
+        resistance: None,
         source: None,
     }
 }

@@ -3,7 +3,9 @@
 //! section integration, eigen-solve, modal post-processing, wind checks, the EN along-wind
 //! action with its combination at the critical speeds (the demo's [wind] gets
 //! terrain_category "II" and basic_speed_m_s 26 for this), and the per-variant
-//! case-table edit + validation. Prints a table; run with `cargo bench --bench sweep`.
+//! case-table edit + validation, and the RC shell resistance along the stage's height (every
+//! mesh node, every vortex action; the demo with an invented `[reinforcement]` added).
+//! Prints a table; run with `cargo bench --bench sweep`.
 //! Figures are wall-clock medians on the current machine.
 
 use std::path::Path;
@@ -14,6 +16,7 @@ use stackwake::commands::sweep::run_grid;
 use stackwake::fem::{lowest_modes, BeamModel};
 use stackwake::input::{keypath, parse_case_table, parse_case_text, DEMO_CASE_TOML};
 use stackwake::modal::stage_modes;
+use stackwake::resistance::{self, along_height::check_stage};
 use stackwake::sweep::Vary;
 use stackwake::wind;
 
@@ -84,6 +87,38 @@ fn main() {
         std::hint::black_box(parse_case_table(t, Path::new("."), "demo").expect("valid"));
     });
     let total = t_mesh + t_eig + t_post + t_wind + t_along;
+    // Resistance: the demo with invented reinforcement (the demo itself has none).
+    let rtext = DEMO_CASE_TOML.replacen(
+        "[shell]\n",
+        "[shell]\ncharacteristic_strength_mpa = 40.0\n",
+        1,
+    )
+        + "\n[reinforcement]\ncharacteristic_strength_mpa = 500.0\n[[reinforcement.zone]]\n\
+           from_z_m = 0.0\nto_z_m = 210.0\nouter_ratio = 0.003\ninner_ratio = 0.002\n\
+           outer_cover_m = 0.06\ninner_cover_m = 0.05\n";
+    let rcase = stackwake::input::parse_case(&rtext, Path::new("."), "demo+steel").expect("valid");
+    let rspec = rcase.resistance.clone().expect("reinforcement");
+    let rsv = wind::check_stage(&rcase, &sm).unwrap();
+    let (actions, fatigue) = resistance::actions::vortex_actions(&rsv, rspec.factors.gamma_q);
+    let e_c = rcase.shell.elastic_modulus_pa;
+    let t_res = time(runs, || {
+        std::hint::black_box(
+            check_stage(&stage.name, &rspec, &sm.model, e_c, actions.clone(), &[]).unwrap(),
+        );
+    });
+    let t_res_fat = time(runs, || {
+        std::hint::black_box(
+            check_stage(
+                &stage.name,
+                &rspec,
+                &sm.model,
+                e_c,
+                actions.clone(),
+                &fatigue,
+            )
+            .unwrap(),
+        );
+    });
     println!(
         "one stage analysis (lined, {} elements, {modes} modes), single thread, median of {runs}",
         beam.elements.len()
@@ -99,6 +134,20 @@ fn main() {
         println!("{name:<44} {:>10.1}", us(d));
     }
     println!("{:<44} {:>10.1}", "stage analysis total", us(total));
+    println!(
+        "{:<44} {:>10.1}",
+        format!(
+            "resistance: M_Rd + {} actions, {} nodes",
+            actions.len(),
+            sm.model.z_m.len()
+        ),
+        us(t_res)
+    );
+    println!(
+        "{:<44} {:>10.1}",
+        "resistance incl. bar fatigue (cracked section)",
+        us(t_res_fat)
+    );
     println!(
         "{:<44} {:>10.1}",
         "per variant: table edit + validation",

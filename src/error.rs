@@ -31,6 +31,14 @@ pub enum Error {
     /// A result is infinite or not a number; nothing was written.
     #[error(transparent)]
     NonFinite(#[from] crate::report::finite::NonFiniteResult),
+    /// A shell section cannot carry its design axial force (resistance check).
+    #[error("stage \"{stage}\" at z = {z_m:.2} m: {source}")]
+    Resistance {
+        stage: String,
+        z_m: f64,
+        #[source]
+        source: crate::resistance::ResistanceError,
+    },
     /// Output could not be written.
     #[error(transparent)]
     Report(#[from] crate::report::ReportError),

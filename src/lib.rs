@@ -23,6 +23,7 @@ pub mod modal;
 pub mod process;
 pub mod remedy;
 pub mod report;
+pub mod resistance;
 pub mod section;
 pub mod similitude;
 pub mod sweep;

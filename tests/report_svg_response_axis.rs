@@ -19,6 +19,7 @@ fn speed_axis_is_the_shedding_height_speed_and_runs_past_the_design_speed() {
         warnings: &[],
         remedies: None,
         model_plan_html: None,
+        resistance: None,
     };
     let fig = response::figure(&input);
     assert_eq!(fig.panels.len(), r.vortex.stages.len());

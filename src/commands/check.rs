@@ -14,6 +14,7 @@ use crate::report::csv::{safe_text, to_csv, to_csv_with_header};
 use crate::report::staging::Staging;
 use crate::report::table;
 use crate::report::{json, note, svg, ReportInput};
+use crate::resistance::{self, actions::ResistanceResults};
 use crate::wind::{self, VortexResults};
 
 use super::modes::{modes_table, stage_modal_files};
@@ -36,6 +37,8 @@ pub struct CheckResults {
     pub along: Option<Vec<crate::along::StageAlongWind>>,
     /// Required damping of failing modes and the case's `[remedy]` devices, re-checked.
     pub remedies: RemedyResults,
+    /// RC shell resistance and reinforcement fatigue; `None` without `[reinforcement]`.
+    pub resistance: Option<ResistanceResults>,
 }
 
 /// One row of lock_in.csv: our own addition (not a code method), the band of heights over
@@ -59,12 +62,34 @@ pub fn analyse(case: Case, options: CheckOptions) -> Result<CheckResults, Error>
     let vortex = wind::check_all(&case, &stages)?;
     let remedies = remedy::compute(&case, &stages, &vortex);
     let along = crate::along::check_all(&case, &stages, &vortex)?;
+    // The along-wind design action and the combined vortex case join the vortex actions.
+    let extra: Vec<(String, resistance::along_height::ActionCurve)> =
+        match (&along, &case.resistance) {
+            (Some(along), Some(spec)) => along
+                .iter()
+                .flat_map(|a| {
+                    resistance::actions::along_wind_actions(a, spec.factors.gamma_q)
+                        .into_iter()
+                        .map(|c| (a.stage.clone(), c))
+                })
+                .collect(),
+            _ => Vec::new(),
+        };
+    let resistance =
+        resistance::actions::check_case(&case, &stages, &vortex, &extra).map_err(|f| {
+            Error::Resistance {
+                stage: f.stage,
+                z_m: f.z_m,
+                source: f.error,
+            }
+        })?;
     Ok(CheckResults {
         case,
         stages,
         vortex,
         along,
         remedies,
+        resistance,
     })
 }
 
@@ -353,7 +378,8 @@ pub fn warnings(results: &CheckResults) -> Vec<String> {
         &results.case,
         &results.stages,
     ));
-    if results.case.criteria.is_empty() {
+    // With [reinforcement] the resistance verdict is judged even without [criteria].
+    if results.case.criteria.is_empty() && results.resistance.is_none() {
         out.push(crate::wind::verdict::NOT_JUDGED_STATEMENT.to_string());
     }
     out.extend(results.vortex.warnings.iter().cloned());
@@ -441,6 +467,7 @@ pub fn stage_note_files(
         warnings,
         remedies: Some(&results.remedies),
         model_plan_html: model_plan_html.as_deref(),
+        resistance: results.resistance.as_ref(),
     };
     let plots = svg::all_plots(&input)?;
     for p in &plots {
@@ -452,7 +479,7 @@ pub fn stage_note_files(
 }
 
 /// Every file `check` writes (their destinations are checked before the analysis).
-pub const CHECK_FILES: [&str; 17] = [
+pub const CHECK_FILES: [&str; 19] = [
     "along_wind.csv",
     "along_moments.svg",
     "modes.csv",
@@ -470,6 +497,8 @@ pub const CHECK_FILES: [&str; 17] = [
     "stages.svg",
     "report.html",
     "summary.json",
+    "resistance.csv",
+    "resistance.svg",
 ];
 
 /// Runs `check` on a case file (or the demo) and writes every output to `out`.
@@ -490,6 +519,19 @@ pub fn run(
         Some(&results.vortex),
         Some(&results.remedies),
     )?;
+    if let Some(r) = &results.resistance {
+        if let Some((quantity, value)) = crate::report::finite::first_non_finite(r) {
+            return Err(crate::report::finite::NonFiniteResult {
+                place: "resistance".into(),
+                quantity,
+                value: format!("{value}"),
+                inputs: "[reinforcement], [shell] characteristic_strength_mpa, [design] and the \
+                         shell geometry"
+                    .into(),
+            }
+            .into());
+        }
+    }
     stage_modal_files(&mut staging, &results.stages)?;
     stage_vortex_files(&mut staging, &results.vortex)?;
     if let Some(along) = &results.along {
@@ -516,8 +558,17 @@ pub fn run(
         &note_date(),
     )?;
     stage_remedy_file(&mut staging, &results.remedies)?;
+    if let Some(r) = &results.resistance {
+        super::resistance::stage_resistance_file(&mut staging, r)?;
+    }
     let files = staging.commit()?;
     let mut stdout = format!("{}\n\n", results.case.title);
+    // The code verdict leads: utilisation and fatigue damage of the RC shell.
+    match &results.resistance {
+        Some(r) => stdout.push_str(&super::resistance::verdict_table(r)),
+        None => stdout.push_str(super::resistance::SKIPPED_LINE),
+    }
+    stdout.push('\n');
     stdout.push_str(&modes_table(&results.stages));
     stdout.push_str(
         "stage wind (50-year speeds x c_prob, EN 1991-1-4 (4.2)), duration and damping\n",
@@ -552,8 +603,9 @@ pub fn run(
     Ok(CommandReport {
         stdout,
         warnings,
-        check_failed: results.vortex.any_exceeds(),
-        not_judged: results.vortex.nothing_judged(),
+        check_failed: results.vortex.any_exceeds()
+            || results.resistance.as_ref().is_some_and(|r| r.any_exceeds()),
+        not_judged: results.vortex.nothing_judged() && results.resistance.is_none(),
         files,
     })
 }

@@ -254,6 +254,7 @@ mod tests {
             "vortex.group",
             "remedy.tmd",
             "remedy.strakes",
+            "reinforcement.zone",
         ];
         for key in serde_fields::<RawCase>() {
             let prefix = format!("{key}.");
@@ -280,6 +281,9 @@ mod tests {
             ("remedy.tmd", serde_fields::<RawTmd>()),
             ("remedy.strakes", serde_fields::<RawStrakes>()),
             ("project", serde_fields::<RawProject>()),
+            ("reinforcement", serde_fields::<RawReinforcement>()),
+            ("reinforcement.zone", serde_fields::<RawReinforcementZone>()),
+            ("design", serde_fields::<RawDesign>()),
         ];
         for (section, fields) in nested {
             for key in *fields {

@@ -71,13 +71,28 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     let model = decode_optional_table(table.remove("model"), "model", &mut issues);
     let remedy = decode_optional_table(table.remove("remedy"), "remedy", &mut issues);
     let project = decode_optional_table(table.remove("project"), "project", &mut issues);
+    let reinforcement =
+        decode_optional_table(table.remove("reinforcement"), "reinforcement", &mut issues);
+    let design = decode_optional_table(table.remove("design"), "design", &mut issues);
 
     if !issues.is_empty() {
         return Err(issues);
     }
     match (
-        shell, lining, point_mass, base, stage, wind, along_wind, vortex, criteria, model, remedy,
+        shell,
+        lining,
+        point_mass,
+        base,
+        stage,
+        wind,
+        along_wind,
+        vortex,
+        criteria,
+        model,
+        remedy,
         project,
+        reinforcement,
+        design,
     ) {
         (
             Some(shell),
@@ -92,6 +107,8 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
             Some(model),
             Some(remedy),
             Some(project),
+            Some(reinforcement),
+            Some(design),
         ) => {
             let stage = match stage {
                 None => None,
@@ -114,6 +131,8 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
                 model,
                 remedy,
                 project,
+                reinforcement,
+                design,
             })
         }
         _ => Err(vec![ValidationIssue::key(

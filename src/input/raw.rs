@@ -33,6 +33,10 @@ pub struct RawCase {
     pub model: Option<RawModel>,
     pub remedy: Option<RawRemedy>,
     pub project: Option<RawProject>,
+    /// `None`: no `[reinforcement]`; the resistance checks are skipped.
+    pub reinforcement: Option<RawReinforcement>,
+    /// `None`: recommended partial factors.
+    pub design: Option<RawDesign>,
 }
 
 /// Top-level keys of the case file, in file order.
@@ -50,7 +54,45 @@ pub const CASE_KEYS: &[&str] = &[
     "model",
     "remedy",
     "project",
+    "reinforcement",
+    "design",
 ];
+
+/// `[reinforcement]`: vertical bars of the shell (resistance issue).
+#[derive(Debug, Clone, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawReinforcement {
+    /// f_yk, MPa.
+    pub characteristic_strength_mpa: f64,
+    /// E_s, GPa (default 200).
+    pub elastic_modulus_gpa: Option<f64>,
+    #[serde(default)]
+    pub zone: Vec<RawReinforcementZone>,
+}
+
+/// `[[reinforcement.zone]]`: steel ratios and covers over a height range.
+#[derive(Debug, Clone, Copy, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawReinforcementZone {
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    pub outer_ratio: f64,
+    pub inner_ratio: f64,
+    pub outer_cover_m: f64,
+    pub inner_cover_m: f64,
+}
+
+/// `[design]`: partial factors (absent keys take the recommended values).
+#[derive(Debug, Clone, Copy, Default, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawDesign {
+    pub gamma_c: Option<f64>,
+    pub gamma_s: Option<f64>,
+    pub alpha_cc: Option<f64>,
+    pub gamma_g_sup: Option<f64>,
+    pub gamma_g_inf: Option<f64>,
+    pub gamma_q: Option<f64>,
+}
 
 /// `[project]`: title-block text of the design note.
 #[derive(Debug, Clone, Default, PartialEq, Eq, Deserialize)]
@@ -74,6 +116,8 @@ pub struct RawShell {
     pub stations_csv: Option<String>,
     /// Equivalent surface roughness k, mm (EN 1991-1-4 Table 7.13; along-wind only).
     pub surface_roughness_mm: Option<f64>,
+    /// f_ck, MPa (needed by the resistance checks).
+    pub characteristic_strength_mpa: Option<f64>,
 }
 
 /// `beam = "timoshenko" | "euler-bernoulli"`.

@@ -24,6 +24,8 @@ pub struct Summary<'a> {
     pub vortex: &'a VortexResults,
     /// Remedy re-checks (empty when none were computed).
     pub remedies: Vec<crate::remedy::RemedyRow>,
+    /// RC shell resistance and reinforcement fatigue (`null` without `[reinforcement]`).
+    pub resistance: Option<&'a crate::resistance::actions::ResistanceResults>,
     pub warnings: &'a [String],
 }
 
@@ -123,6 +125,7 @@ pub fn summary<'a>(input: &ReportInput<'a>) -> Summary<'a> {
             .collect(),
         vortex: input.vortex,
         remedies: input.remedies.map(|r| r.rows()).unwrap_or_default(),
+        resistance: input.resistance,
         warnings: input.warnings,
     }
 }

@@ -36,6 +36,8 @@ pub struct ReportInput<'a> {
     pub remedies: Option<&'a crate::remedy::RemedyResults>,
     /// The aeroelastic model plan (escaped HTML fragment), when the case has `[model]`.
     pub model_plan_html: Option<&'a str>,
+    /// RC shell resistance results, when the case has `[reinforcement]`.
+    pub resistance: Option<&'a crate::resistance::actions::ResistanceResults>,
 }
 
 /// The cautions printed in the design note and carried in summary.json.

@@ -63,6 +63,7 @@ pub fn shell_case(
         model: None,
         remedy: None,
         project: Default::default(),
+        resistance: None,
         source: None,
     }
 }

@@ -61,6 +61,7 @@ pub fn case(wind: Wind, method: VortexMethod, criteria: Criteria) -> Case {
         model: None,
         remedy: None,
         project: Default::default(),
+        resistance: None,
         source: None,
     }
 }

@@ -29,8 +29,10 @@ use super::raw::{
 use super::stations_csv::CsvStations;
 
 mod along_wind;
+mod design;
 mod lining;
 mod model;
+mod reinforcement;
 mod remedy;
 mod shell;
 mod stage;
@@ -40,8 +42,11 @@ mod vortex;
 mod wind;
 
 use along_wind::check_along_wind;
+use design::check_design;
 use lining::check_lining;
 use model::check_model;
+use reinforcement::check_resistance;
+pub use reinforcement::{CONCRETE_STRENGTH_MPA, MAX_RATIO, STEEL_STRENGTH_MPA};
 use remedy::check_remedy;
 use shell::check_shell;
 pub use stage::default_stages;
@@ -274,6 +279,8 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     if let (Some(s), Some(v)) = (&shell, &vortex) {
         c.issues.extend(super::plausibility::group_errors(s, v));
     }
+    let factors = check_design(&mut c, raw.design.as_ref());
+    let resistance = check_resistance(&mut c, raw, shell.as_ref(), factors);
 
     match (shell, wind, vortex) {
         (Some(shell), None | Some(Some(_)), Some(vortex)) if c.issues.is_empty() => Ok(Case {
@@ -296,6 +303,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             model,
             remedy,
             project: project_text(raw.project.as_ref()),
+            resistance,
             source: None,
         }),
         _ => Err(c.issues),

@@ -20,6 +20,7 @@ mod method;
 mod modes;
 mod page_style;
 mod remedies;
+mod resistance;
 mod title_block;
 mod verdicts;
 
@@ -55,6 +56,7 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
     }
     o.push_str("</ul></div>\n<h2>2 Inputs</h2>\n");
     inputs::write(&mut o, input);
+    resistance::write_inputs(&mut o, input);
     put(&mut o, "shell.svg");
     o.push_str("<section class=\"major\">\n<h2>3 Method</h2>\n");
     method::write(&mut o);
@@ -80,6 +82,16 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
         );
         along::write(&mut o, along);
         put(&mut o, "along_moments.svg");
+        o.push_str("</section>\n");
+        next += 1;
+    }
+    if let Some(r) = input.resistance {
+        let _ = writeln!(
+            o,
+            "<section class=\"major\">\n<h2>{next} Resistance of the RC shell and fatigue of the reinforcement</h2>"
+        );
+        resistance::write(&mut o, r);
+        put(&mut o, "resistance.svg");
         o.push_str("</section>\n");
         next += 1;
     }
@@ -112,7 +124,7 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
         o,
         "<footer>Screening tool: results must be checked by a licensed engineer against the \
          local code and the governing standard's National Annex. No warranty. Tables of this \
-         note: modes.csv, vortex.csv, lock_in.csv, loads.csv, summary.json.</footer>\n</body>\n</html>"
+         note: modes.csv, vortex.csv, lock_in.csv, loads.csv, along_wind.csv (with the EN site wind), resistance.csv (with [reinforcement]), summary.json.</footer>\n</body>\n</html>"
     );
     o
 }

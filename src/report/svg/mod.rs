@@ -8,6 +8,7 @@
 pub mod along_moments;
 pub mod envelopes;
 pub mod modes;
+pub mod resistance;
 pub mod response;
 pub mod shell;
 pub mod stages;
@@ -40,6 +41,7 @@ pub fn all_plots(input: &ReportInput) -> Result<Vec<Plot>, ReportError> {
     if let Some(along) = input.along {
         plots.push(along_moments::plot(input, along)?);
     }
+    plots.extend(resistance::plot(input)?);
     Ok(plots)
 }
 
