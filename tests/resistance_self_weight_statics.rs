@@ -39,11 +39,13 @@ fn case() -> stackwake::case::Case {
             z_m: 60.0,
             mass_kg: 20e3,
             label: "platform".into(),
+            stages: None,
         },
         PointMass {
             z_m: 120.0,
             mass_kg: 15e3,
             label: "cap".into(),
+            stages: None,
         },
     ];
     c.stages = vec![
@@ -52,12 +54,18 @@ fn case() -> stackwake::case::Case {
             lining: false,
             stiffness_factor: 1.0,
             top_z_m: None,
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
         },
         Stage {
             name: "lined".into(),
             lining: true,
             stiffness_factor: 1.0,
             top_z_m: None,
+            duration_years: None,
+            return_period_years: None,
+            log_decrement: None,
         },
     ];
     c.resistance = Some(ResistanceSpec {

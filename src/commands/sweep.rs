@@ -309,6 +309,7 @@ mod tests {
             max_stress_pa: Some(1e6),
             required_log_decrement: None,
             damping_remedy: DampingRemedy::NotNeeded,
+            combined_to_along_base_ratio: None,
             verdict: crate::wind::Verdict::NotJudged,
         }
     }
