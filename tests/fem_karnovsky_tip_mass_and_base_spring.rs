@@ -30,6 +30,7 @@ fn tip_mass_ratios_match_the_frequency_equation() {
         let mut case = common::uniform_tube(L, 4.0, 0.2, BeamTheory::EulerBernoulli);
         let (ei, m) = common::tube_ei_m(&case);
         case.point_masses.push(PointMass {
+            rotary_inertia_kg_m2: 0.0,
             z_m: L,
             mass_kg: mu * m * L,
             label: "tip".into(),
@@ -52,6 +53,7 @@ fn blevins_tip_mass_ratio_one() {
     let mut case = common::uniform_tube(L, 4.0, 0.2, BeamTheory::EulerBernoulli);
     let (ei, m) = common::tube_ei_m(&case);
     case.point_masses.push(PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: L,
         mass_kg: m * L,
         label: "tip".into(),

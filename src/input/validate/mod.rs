@@ -28,8 +28,10 @@ use super::raw::{
 };
 use super::stations_csv::CsvStations;
 
+mod base;
 mod lining;
 mod model;
+mod opening;
 mod remedy;
 mod shell;
 mod stage;
@@ -37,6 +39,7 @@ mod stage;
 mod tests;
 mod vortex;
 mod wind;
+mod zone;
 
 use lining::check_lining;
 use model::check_model;
@@ -189,8 +192,14 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     let mut c = Checker::default();
     c.issues.extend(super::limits::check_ranges(raw));
     c.issues.extend(super::names::check_names(raw));
-    let shell = check_shell(&mut c, raw, csv);
+    let mut shell = check_shell(&mut c, raw, csv);
     let height_m = shell.as_ref().map(Shell::height_m);
+    let zones = zone::check_zones(&mut c, &raw.shell.zone, height_m);
+    let openings = opening::check_openings(&mut c, &raw.opening, shell.as_ref());
+    if let Some(s) = &mut shell {
+        s.zones = zones;
+        s.openings = openings;
+    }
     if let Some(s) = &shell {
         c.issues.extend(super::physical::check(raw, s, csv));
     }
@@ -208,7 +217,9 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
         let z_ok = c.finite(&format!("{p}.z_m"), pm.z_m)
             && within_shell(&mut c, &format!("{p}.z_m"), pm.z_m, height_m);
         let m_ok = c.positive(&format!("{p}.mass_kg"), pm.mass_kg);
-        if z_ok && m_ok {
+        let rotary_inertia_kg_m2 = pm.rotary_inertia_kg_m2.unwrap_or(0.0);
+        let j_ok = c.non_negative(&format!("{p}.rotary_inertia_kg_m2"), rotary_inertia_kg_m2);
+        if z_ok && m_ok && j_ok {
             let label = match pm.label.as_deref().map(str::trim) {
                 Some(l) if !l.is_empty() => l.to_string(),
                 _ => format!("point mass at {} m", num(pm.z_m)),
@@ -216,25 +227,13 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             point_masses.push(PointMass {
                 z_m: pm.z_m,
                 mass_kg: pm.mass_kg,
+                rotary_inertia_kg_m2,
                 label,
             });
         }
     }
 
-    let base = raw.base.as_ref().and_then(|b| {
-        let rot = c.optional_positive(
-            "base.rotational_stiffness_gnm_per_rad",
-            b.rotational_stiffness_gnm_per_rad,
-        );
-        let lat = c.optional_positive(
-            "base.lateral_stiffness_mn_per_m",
-            b.lateral_stiffness_mn_per_m,
-        );
-        (rot.is_some() || lat.is_some()).then(|| BaseSprings {
-            rotational_nm_per_rad: rot.map(|v| v * 1e9),
-            lateral_n_per_m: lat.map(|v| v * 1e6),
-        })
-    });
+    let (base, base_inertia) = base::check_base(&mut c, raw.base.as_ref());
 
     let stages = check_stages(&mut c, raw, height_m);
     // `None` = no [wind] in the file; `Some(None)` = a [wind] with problems.
@@ -275,6 +274,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             linings,
             point_masses,
             base,
+            base_inertia,
             stages,
             wind: wind.flatten(),
             vortex,
