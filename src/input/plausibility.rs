@@ -144,6 +144,34 @@ pub fn case_warnings(case: &Case) -> Vec<String> {
         }
     }
     out.extend(spring_warnings(case));
+    out.extend(base_inertia_warnings(case));
+    out
+}
+
+/// A foundation mass or rotary inertia on a base that cannot move that way is ignored.
+fn base_inertia_warnings(case: &Case) -> Vec<String> {
+    let b = case.base_inertia;
+    let lateral = case.base.and_then(|s| s.lateral_n_per_m).is_some();
+    let rotational = case.base.and_then(|s| s.rotational_nm_per_rad).is_some();
+    let why = |spring: &str| match case.base {
+        None => "the base is fixed (no [base] springs)".to_string(),
+        Some(_) => format!("the base is rigid in that direction (no base.{spring})"),
+    };
+    let mut out = Vec::new();
+    if b.mass_kg > 0.0 && !lateral {
+        out.push(format!(
+            "base.mass_kg = {}: ignored, {}; the foundation mass moves only with a lateral              spring",
+            num(b.mass_kg),
+            why("lateral_stiffness_mn_per_m")
+        ));
+    }
+    if b.rotary_inertia_kg_m2 > 0.0 && !rotational {
+        out.push(format!(
+            "base.rotary_inertia_kg_m2 = {}: ignored, {}; the foundation's rotary inertia              moves only with a rotational spring",
+            num(b.rotary_inertia_kg_m2),
+            why("rotational_stiffness_gnm_per_rad")
+        ));
+    }
     out
 }
 

@@ -12,6 +12,7 @@
 //! Headings and layout are our own. Units: SI, with the unit in every column head.
 
 mod comparison;
+mod drawn;
 mod inputs;
 mod loads;
 mod markup;
