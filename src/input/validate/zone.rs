@@ -4,15 +4,15 @@
 //! Rules: limits inside the shell and in order, zones not overlapping (touching is fine), at
 //! least one value per zone, each value under the same rule as its `[shell]` counterpart.
 //! The characteristic strength f_ck is only stored (for the reinforced-concrete
-//! resistance): 12-90 MPa, the strength classes C12/15 to C90/105 of EN 1992-1-1 Table 3.1
-//! (from memory). Units as in the parent module (GPa, MPa in the file; Pa inside).
+//! resistance): 12-90 MPa, the 14 strength classes C12/15 to C90/105 of EN 1992-1-1
+//! Table 3.1 (read in public summaries of the table, see data/reference/README.md). Units as in the parent module (GPa, MPa in the file; Pa inside).
 
 use crate::case::ConcreteZone;
 use crate::input::raw::RawZone;
 
 use super::*;
 
-/// f_ck range of EN 1992-1-1 Table 3.1, MPa (C12/15 to C90/105; from memory).
+/// f_ck range of EN 1992-1-1 Table 3.1, MPa (C12/15 to C90/105; data/reference/README.md).
 pub const CHARACTERISTIC_STRENGTH_RANGE_MPA: (f64, f64) = (12.0, 90.0);
 
 /// Every zone of `raw`, in file order; `None` entries are dropped (their issues recorded).
