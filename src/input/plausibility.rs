@@ -88,6 +88,19 @@ pub fn case_warnings(case: &Case) -> Vec<String> {
             CONCRETE_E_GPA.1
         ));
     }
+    for (i, z) in case.shell.zones.iter().enumerate() {
+        if let Some(e) = z.elastic_modulus_pa.map(|e| e / 1e9) {
+            if !(CONCRETE_E_GPA.0..=CONCRETE_E_GPA.1).contains(&e) {
+                out.push(format!(
+                    "shell.zone[{i}].elastic_modulus_gpa = {}: outside the plausible {}-{} GPa \
+                     of structural concrete; a slipped decimal point (3.4 or 340 for 34)?",
+                    num(e),
+                    CONCRETE_E_GPA.0,
+                    CONCRETE_E_GPA.1
+                ));
+            }
+        }
+    }
     if let Some(w) = &case.wind {
         if w.reference_speed_m_s > MAX_REFERENCE_SPEED_M_S {
             out.push(format!(
