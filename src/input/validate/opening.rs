@@ -110,7 +110,7 @@ fn check_fit(
     let mut pairs_reported: Vec<(usize, usize)> = Vec::new();
     let mut half_reported = false;
     let z = breakpoints(shell, openings);
-    for w in z.windows(2) {
+    'heights: for w in z.windows(2) {
         let (lo, hi) = (w[0], w[1]);
         let mid = 0.5 * (lo + hi);
         let (d_lo, d_hi) = (shell.geometry_above(lo).0, shell.geometry_at(hi).0);
@@ -136,7 +136,7 @@ fn check_fit(
                             ),
                         );
                     }
-                    return;
+                    continue 'heights;
                 }
             }
         }
