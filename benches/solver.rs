@@ -14,8 +14,11 @@ use stackwake::fem::{
 fn case() -> Case {
     let stations = [(0.0, 16.0, 0.55), (60.0, 13.0, 0.40), (180.0, 9.0, 0.22)];
     Case {
+        base_inertia: Default::default(),
         title: "Invented benchmark stack".into(),
         shell: Shell {
+            zones: vec![],
+            openings: vec![],
             elastic_modulus_pa: 32e9,
             density_kg_m3: 2500.0,
             poisson_ratio: 0.2,
@@ -37,6 +40,7 @@ fn case() -> Case {
             },
         }],
         point_masses: vec![PointMass {
+            rotary_inertia_kg_m2: 0.0,
             z_m: 150.0,
             mass_kg: 30000.0,
             label: "platform".into(),

@@ -19,6 +19,9 @@ pub struct Case {
     pub point_masses: Vec<PointMass>,
     /// Foundation springs; `None` = fixed base.
     pub base: Option<BaseSprings>,
+    /// Foundation mass and rotary inertia, moving with the springs (zero = none; a component
+    /// on a rigid base direction is ignored, and the reader warns).
+    pub base_inertia: BaseInertia,
     /// At least one stage.
     pub stages: Vec<Stage>,
     /// Site wind; `None` when the case file has no `[wind]` (modal commands only: the
@@ -97,8 +100,68 @@ pub struct Shell {
     /// Poisson's ratio, 0 <= nu < 0.5.
     pub poisson_ratio: f64,
     pub beam: BeamTheory,
-    /// At least two stations; `z_m` strictly increasing from 0; 0 < 2 wall < outer diameter.
+    /// At least two stations; `z_m` increasing from 0; 0 < 2 wall < outer diameter. Two
+    /// consecutive stations at the same height are a wall step (the first holds below, the
+    /// second above); never three at one height, never a step at the base or the top.
     pub stations: Vec<Station>,
+    /// Concrete zones with their own material values (no overlap, inside the shell).
+    pub zones: Vec<ConcreteZone>,
+    /// Flue and access openings (none overlapping at one height, together at most half the
+    /// circumference, each narrower than the shell).
+    pub openings: Vec<Opening>,
+}
+
+/// The concrete of one part of the shell (`[[shell.zone]]`); `None` = the `[shell]` value.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct ConcreteZone {
+    /// Zone limits, m (0 <= from < to <= shell height).
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    /// Pa.
+    pub elastic_modulus_pa: Option<f64>,
+    /// kg/m3.
+    pub density_kg_m3: Option<f64>,
+    pub poisson_ratio: Option<f64>,
+    /// f_ck, Pa: stored for the reinforced-concrete resistance; not used by the beam model.
+    pub characteristic_strength_pa: Option<f64>,
+}
+
+/// The material of the shell at one height.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Material {
+    pub elastic_modulus_pa: f64,
+    pub density_kg_m3: f64,
+    pub poisson_ratio: f64,
+}
+
+impl Material {
+    /// Shear modulus G = E / (2 (1 + nu)), Pa.
+    pub fn shear_modulus_pa(&self) -> f64 {
+        self.elastic_modulus_pa / (2.0 * (1.0 + self.poisson_ratio))
+    }
+}
+
+/// A flue or access opening (`[[opening]]`): removes the annular sector of half-angle
+/// asin(width / D) at every height from `from_z_m` to `to_z_m`.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Opening {
+    /// Limits, m (0 <= from < to <= shell height).
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    /// Clear width across the opening at the outer face, m.
+    pub width_m: f64,
+    /// Azimuth of the opening's centre line, rad.
+    pub azimuth_rad: f64,
+    pub label: String,
+}
+
+/// Foundation mass and rotary inertia (`[base] mass_kg`, `rotary_inertia_kg_m2`).
+#[derive(Debug, Clone, Copy, Default, PartialEq, Serialize)]
+pub struct BaseInertia {
+    /// kg, on the lateral base dof (>= 0).
+    pub mass_kg: f64,
+    /// kg m2 about the base, on the rotational base dof (>= 0).
+    pub rotary_inertia_kg_m2: f64,
 }
 
 impl Shell {
@@ -112,8 +175,51 @@ impl Shell {
         self.stations.last().map(|s| s.z_m).unwrap_or(0.0)
     }
 
+    /// The material at height `z_m`: the first zone that holds it, else the `[shell]` values.
+    /// The mesh has nodes at zone limits, so callers ask at an element's midpoint.
+    pub fn material_at(&self, z_m: f64) -> Material {
+        let mut m = Material {
+            elastic_modulus_pa: self.elastic_modulus_pa,
+            density_kg_m3: self.density_kg_m3,
+            poisson_ratio: self.poisson_ratio,
+        };
+        if let Some(z) = self
+            .zones
+            .iter()
+            .find(|z| z.from_z_m <= z_m && z_m <= z.to_z_m)
+        {
+            m.elastic_modulus_pa = z.elastic_modulus_pa.unwrap_or(m.elastic_modulus_pa);
+            m.density_kg_m3 = z.density_kg_m3.unwrap_or(m.density_kg_m3);
+            m.poisson_ratio = z.poisson_ratio.unwrap_or(m.poisson_ratio);
+        }
+        m
+    }
+
+    /// The openings that cut the wall at height `z_m` (limits included).
+    pub fn openings_at(&self, z_m: f64) -> impl Iterator<Item = &Opening> {
+        self.openings
+            .iter()
+            .filter(move |o| o.from_z_m <= z_m && z_m <= o.to_z_m)
+    }
+
+    /// Outer diameter and wall thickness just above `z_m`: at a wall step the upper station,
+    /// elsewhere the same as [`Shell::geometry_at`], m.
+    pub fn geometry_above(&self, z_m: f64) -> (f64, f64) {
+        let st = &self.stations;
+        // The first station strictly above z; the one before it holds at and just above z.
+        let i = st.partition_point(|s| s.z_m <= z_m);
+        if i == 0 {
+            return (st[0].outer_diameter_m, st[0].wall_m);
+        }
+        let a = st[i - 1];
+        if a.z_m == z_m || i == st.len() {
+            return (a.outer_diameter_m, a.wall_m);
+        }
+        self.geometry_at(z_m)
+    }
+
     /// Outer diameter and wall thickness at height `z_m` (linear between stations, clamped to
-    /// the ends), m.
+    /// the ends; at a wall step the lower station, the value just below), m.
     pub fn geometry_at(&self, z_m: f64) -> (f64, f64) {
         let st = &self.stations;
         if z_m <= st[0].z_m {
@@ -190,11 +296,13 @@ impl Lining {
     }
 }
 
-/// A concentrated mass (translational only).
+/// A concentrated mass with an optional rotary inertia.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct PointMass {
     pub z_m: f64,
     pub mass_kg: f64,
+    /// About a horizontal axis through the mass, kg m2 (>= 0; 0 = translational only).
+    pub rotary_inertia_kg_m2: f64,
     pub label: String,
     /// Names of the stages the mass is present in (a climbing formwork rig, a crane);
     /// `None` = every stage. Each name is a stage of the case, and the mass lies at or below
@@ -487,13 +595,22 @@ pub struct ResistanceSpec {
     /// Zones sorted by height, contiguous, covering the whole shell.
     pub zones: Vec<ReinforcementZone>,
     pub factors: DesignFactors,
+    /// The shell's concrete zones (`[[shell.zone]]`), for their own f_ck.
+    pub concrete_zones: Vec<ConcreteZone>,
+    /// The shell's openings (`[[opening]]`): their sectors are removed from concrete and
+    /// steel.
+    pub openings: Vec<Opening>,
 }
 
 impl ResistanceSpec {
-    /// f_ck at height `z_m`, Pa. One value for the whole shell today; per-zone concrete
-    /// strengths (`[[shell.zone]]`) plug in here.
-    pub fn concrete_strength_at(&self, _z_m: f64) -> f64 {
-        self.concrete_strength_pa
+    /// f_ck at height `z_m`, Pa: the zone's own value where a `[[shell.zone]]` gives one
+    /// (the section just below a zone limit belongs to the zone below), else `[shell]`'s.
+    pub fn concrete_strength_at(&self, z_m: f64) -> f64 {
+        self.concrete_zones
+            .iter()
+            .find(|zn| z_m >= zn.from_z_m && z_m <= zn.to_z_m)
+            .and_then(|zn| zn.characteristic_strength_pa)
+            .unwrap_or(self.concrete_strength_pa)
     }
 
     /// The zone that holds the section just below `z_m` (the first zone at the base).

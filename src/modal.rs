@@ -41,11 +41,84 @@ pub struct StageModel {
     pub lining_mass_kg_m: Vec<f64>,
     /// Concentrated masses lumped to nodes: (node index, kg).
     pub point_masses: Vec<(usize, f64)>,
-    /// Second moment of area of the shell at the nodes, m4.
+    /// Second moment of area of the shell at the nodes, m4: at opening levels the net
+    /// section's smaller principal value.
     pub second_moment_m4: Vec<f64>,
+    /// Shell mass per metre at each element's bottom and top, kg/m: differs from the nodal
+    /// values where the section jumps (wall steps, zone limits, opening limits). Empty = use
+    /// the nodal values.
+    pub element_shell_mass_kg_m: Vec<[f64; 2]>,
+    /// Net area at the nodes, m2. Empty = the annulus of the nodal D and t.
+    pub area_m2: Vec<f64>,
+    /// Section modulus just above the nodes, m3: I / (D/2) of the annulus, or at openings
+    /// the net section's I_min over its extreme fibre from that neutral axis. Empty =
+    /// I / (D/2). Stresses use [`StageModel::stress_modulus_m3`].
+    pub section_modulus_m3: Vec<f64>,
+    /// The section just below each node where it differs from the one above: (node index,
+    /// section).
+    pub sections_below: Vec<(usize, NodeSection)>,
+}
+
+/// The shell section on one side of a node.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct NodeSection {
+    pub outer_diameter_m: f64,
+    pub wall_m: f64,
+    /// Net area, m2.
+    pub area_m2: f64,
+    /// Net smaller principal second moment, m4.
+    pub second_moment_m4: f64,
+    /// Net section modulus in that direction, m3.
+    pub section_modulus_m3: f64,
+    pub shell_mass_kg_m: f64,
+}
+
+impl NodeSection {
+    /// The section of element `data` at local coordinate `s_m`.
+    pub fn of(data: &fem::model::ElementData, s_m: f64) -> NodeSection {
+        let a = data.annulus(s_m);
+        let (area_m2, second_moment_m4, section_modulus_m3) = if data.openings.is_empty() {
+            (a.area_m2(), a.second_moment_m4(), a.section_modulus_m3())
+        } else {
+            let n = data.net_section(s_m);
+            (n.area_m2, n.second_moment_min_m4, n.section_modulus_m3())
+        };
+        NodeSection {
+            outer_diameter_m: a.outer_diameter_m,
+            wall_m: a.wall_m,
+            area_m2,
+            second_moment_m4,
+            section_modulus_m3,
+            shell_mass_kg_m: data.density_kg_m3 * area_m2,
+        }
+    }
+
+    /// Whether two sides differ by more than rounding.
+    fn differs(&self, other: &NodeSection) -> bool {
+        let off = |a: f64, b: f64| (a - b).abs() > 1e-12 * a.abs().max(b.abs());
+        off(self.outer_diameter_m, other.outer_diameter_m)
+            || off(self.wall_m, other.wall_m)
+            || off(self.area_m2, other.area_m2)
+            || off(self.second_moment_m4, other.second_moment_m4)
+            || off(self.section_modulus_m3, other.section_modulus_m3)
+            || off(self.shell_mass_kg_m, other.shell_mass_kg_m)
+    }
 }
 
 impl StageModel {
+    /// The section modulus for the stress at node `i`, m3: the weaker side where the
+    /// section jumps (conservative: the moment is continuous, the stress is not).
+    pub fn stress_modulus_m3(&self, i: usize) -> f64 {
+        let above = match self.section_modulus_m3.get(i) {
+            Some(&w) => w,
+            None => self.second_moment_m4[i] / (0.5 * self.outer_diameter_m[i]),
+        };
+        match self.sections_below.iter().find(|(k, _)| *k == i) {
+            Some((_, b)) => above.min(b.section_modulus_m3),
+            None => above,
+        }
+    }
+
     /// Stage height, m.
     pub fn height_m(&self) -> f64 {
         *self.z_m.last().unwrap_or(&0.0)
@@ -163,20 +236,32 @@ pub fn stage_model(beam: &BeamModel) -> StageModel {
         lining_mass_kg_m: vec![0.0; n],
         point_masses: beam.point_masses.clone(),
         second_moment_m4: vec![0.0; n],
+        element_shell_mass_kg_m: Vec::new(),
+        area_m2: vec![0.0; n],
+        section_modulus_m3: vec![0.0; n],
+        sections_below: Vec::new(),
     };
     for i in 0..n {
-        // Geometry is continuous; take it from the element above (below for the top node).
-        let (data, s) = if i + 1 < n {
-            (&beam.element_data[i], 0.0)
+        // The section just above the node (just below for the top node).
+        let above = if i + 1 < n {
+            NodeSection::of(&beam.element_data[i], 0.0)
         } else {
             let d = &beam.element_data[i - 1];
-            (d, d.length_m)
+            NodeSection::of(d, d.length_m)
         };
-        let a = data.annulus(s);
-        model.outer_diameter_m[i] = a.outer_diameter_m;
-        model.wall_m[i] = a.wall_m;
-        model.shell_mass_kg_m[i] = data.shell_mass_kg_m(s);
-        model.second_moment_m4[i] = a.second_moment_m4();
+        model.outer_diameter_m[i] = above.outer_diameter_m;
+        model.wall_m[i] = above.wall_m;
+        model.shell_mass_kg_m[i] = above.shell_mass_kg_m;
+        model.second_moment_m4[i] = above.second_moment_m4;
+        model.area_m2[i] = above.area_m2;
+        model.section_modulus_m3[i] = above.section_modulus_m3;
+        if i > 0 && i + 1 < n {
+            let d = &beam.element_data[i - 1];
+            let below = NodeSection::of(d, d.length_m);
+            if below.differs(&above) {
+                model.sections_below.push((i, below));
+            }
+        }
         let above = if i + 1 < n {
             beam.element_data[i].lining_mass_kg_m(0.0)
         } else {
@@ -190,6 +275,11 @@ pub fn stage_model(beam: &BeamModel) -> StageModel {
         };
         model.lining_mass_kg_m[i] = above.max(below);
     }
+    model.element_shell_mass_kg_m = beam
+        .element_data
+        .iter()
+        .map(|d| [d.shell_mass_kg_m(0.0), d.shell_mass_kg_m(d.length_m)])
+        .collect();
     model
 }
 

@@ -151,18 +151,21 @@ fn point_masses_100_times_the_shell_work() {
     let big = 100.0 * shell_mass_kg(&case);
     case.point_masses = vec![
         PointMass {
+            rotary_inertia_kg_m2: 0.0,
             z_m: 120.0,
             mass_kg: big,
             label: "huge cap".into(),
             stages: None,
         },
         PointMass {
+            rotary_inertia_kg_m2: 0.0,
             z_m: 60.0,
             mass_kg: big,
             label: "huge platform".into(),
             stages: None,
         },
         PointMass {
+            rotary_inertia_kg_m2: 0.0,
             z_m: 1e-3,
             mass_kg: big,
             label: "at the base".into(),
@@ -178,6 +181,7 @@ fn point_masses_100_times_the_shell_work() {
     let mut tip = uniform_tube(120.0, 8.0, 0.3, BeamTheory::EulerBernoulli);
     let m_tip = 100.0 * shell_mass_kg(&tip);
     tip.point_masses = vec![PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: 120.0,
         mass_kg: m_tip,
         label: "tip".into(),
@@ -366,6 +370,7 @@ fn closely_spaced_nodes_work() {
         BeamTheory::Timoshenko,
     );
     case.point_masses = vec![PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: 50.000001,
         mass_kg: 2e4,
         label: "p".into(),

@@ -55,6 +55,7 @@ fn arb_case() -> impl Strategy<Value = Case> {
             });
             if let Some((frac, kg)) = pm {
                 case.point_masses.push(PointMass {
+                    rotary_inertia_kg_m2: 0.0,
                     z_m: frac * h,
                     mass_kg: kg,
                     label: "p".into(),
@@ -167,6 +168,7 @@ fn recursion_inverts_k_with_a_very_short_element() {
         BeamTheory::EulerBernoulli,
     );
     case.point_masses.push(PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: 24.012840942622873,
         mass_kg: 1000.0,
         label: "p".into(),

@@ -30,6 +30,7 @@ fn tip_mass_ratios_match_the_frequency_equation() {
         let mut case = common::uniform_tube(L, 4.0, 0.2, BeamTheory::EulerBernoulli);
         let (ei, m) = common::tube_ei_m(&case);
         case.point_masses.push(PointMass {
+            rotary_inertia_kg_m2: 0.0,
             z_m: L,
             mass_kg: mu * m * L,
             label: "tip".into(),
@@ -53,6 +54,7 @@ fn blevins_tip_mass_ratio_one() {
     let mut case = common::uniform_tube(L, 4.0, 0.2, BeamTheory::EulerBernoulli);
     let (ei, m) = common::tube_ei_m(&case);
     case.point_masses.push(PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: L,
         mass_kg: m * L,
         label: "tip".into(),
@@ -113,6 +115,7 @@ fn a_tip_mass_listed_for_one_stage_is_in_that_stage_only() {
         mass_kg: m * L,
         label: "climbing rig".into(),
         stages: Some(vec!["rig".into()]),
+        rotary_inertia_kg_m2: 0.0,
     });
     let stages = stackwake::modal::analyse_case(
         &case,

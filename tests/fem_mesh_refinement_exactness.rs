@@ -23,6 +23,7 @@ fn tapered_case() -> Case {
         },
     });
     case.point_masses.push(PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: 150.0,
         mass_kg: 30000.0,
         label: "p".into(),

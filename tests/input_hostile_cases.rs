@@ -72,7 +72,7 @@ fn hostile_inputs_are_refused_with_exact_messages() {
         ("stations out of order", edit("z_m = 50.0", "z_m = 150.0"),
          "shell.stations[2].z_m = 100: must be above the previous station (150 m); list stations from the base upward"),
         ("duplicated station", edit("z_m = 50.0", "z_m = 0.0"),
-         "shell.stations[1].z_m = 0: same height as the previous station (duplicate)"),
+         "shell.stations[1].z_m = 0: a wall step at the base (z = 0) has no shell below it; give one station at z = 0"),
         ("first station not at 0", edit("z_m = 0.0", "z_m = 3.0"),
          "shell.stations[0].z_m = 3: the first station must be at z = 0 (top of the foundation)"),
         ("lining above the shell", edit("to_z_m = 100.0", "to_z_m = 130.0"),

@@ -44,6 +44,7 @@ fn tip_mass_enters_the_equivalent_mass() {
     let mut case = common::uniform_tube(90.0, 5.0, 0.25, BeamTheory::EulerBernoulli);
     let (_, m) = common::tube_ei_m(&case);
     case.point_masses.push(PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: 90.0,
         mass_kg: 0.3 * m * 90.0,
         label: "cap".into(),

@@ -40,12 +40,14 @@ fn case() -> stackwake::case::Case {
             mass_kg: 20e3,
             label: "platform".into(),
             stages: None,
+            rotary_inertia_kg_m2: 0.0,
         },
         PointMass {
             z_m: 120.0,
             mass_kg: 15e3,
             label: "cap".into(),
             stages: None,
+            rotary_inertia_kg_m2: 0.0,
         },
     ];
     c.stages = vec![
@@ -81,6 +83,8 @@ fn case() -> stackwake::case::Case {
             inner_cover_m: 0.05,
         }],
         factors: DesignFactors::default(),
+        concrete_zones: Vec::new(),
+        openings: Vec::new(),
     });
     c
 }

@@ -106,6 +106,7 @@ fn model_masses_follow_the_mass_ratio() {
         },
     ];
     case.point_masses = vec![PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: 90.0,
         mass_kg: 20000.0,
         label: "cap".into(),

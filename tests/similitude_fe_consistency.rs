@@ -59,6 +59,7 @@ fn stack(t_base: f64, t_top: f64, beam: BeamTheory) -> Case {
         },
     }];
     case.point_masses = vec![PointMass {
+        rotary_inertia_kg_m2: 0.0,
         z_m: 146.0,
         mass_kg: 20000.0,
         label: "top".into(),

@@ -294,6 +294,10 @@ mod tests {
             lining_mass_kg_m: vec![0.0; k],
             point_masses: Vec::new(),
             second_moment_m4: vec![1.0; k],
+            element_shell_mass_kg_m: vec![[1.0, 1.0]; k - 1],
+            area_m2: vec![1.0; k],
+            section_modulus_m3: vec![1.0; k],
+            sections_below: Vec::new(),
         }
     }
 

@@ -251,6 +251,7 @@ mod tests {
         // Sections: each top-level key is a header, an array-of-tables header or a key.
         let sub_sections = [
             "shell.stations",
+            "shell.zone",
             "vortex.group",
             "remedy.tmd",
             "remedy.strakes",
@@ -267,6 +268,8 @@ mod tests {
         let nested: &[(&str, &[&str])] = &[
             ("shell", serde_fields::<RawShell>()),
             ("shell", serde_fields::<RawStation>()),
+            ("shell.zone", serde_fields::<RawZone>()),
+            ("opening", serde_fields::<RawOpening>()),
             ("lining", serde_fields::<RawLining>()),
             ("point_mass", serde_fields::<RawPointMass>()),
             ("base", serde_fields::<RawBase>()),

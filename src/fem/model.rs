@@ -1,15 +1,23 @@
 //! The beam model of one construction stage: mesh, elements, banded mass and stiffness,
 //! point masses and base springs.
 //!
-//! Mesh: nodes on every station, lining end, point mass and the stage top, then each
+//! Mesh: nodes on every station (a wall step is one node with a section on each side),
+//! lining end, concrete-zone limit, opening limit, point mass and the stage top, then each
 //! segment between such nodes split evenly so that the total element count reaches the
 //! requested minimum (elements spread in proportion to segment length).
 //!
 //! DOF numbering: node i (z ascending from the base) owns dofs 4i (w, m) and 4i + 1
 //! (theta, rad); element e's bubble amplitudes are dofs 4e + 2 (m) and 4e + 3 (rad). A rigid
 //! base direction is a removed dof (kept in the vectors as a zero).
+//!
+//! Openings: an element inside an opening's height range uses the net section of
+//! [`crate::section::opening`] (area for the mass, the smaller principal second moment for
+//! bending and rotary inertia). Its shear stiffness is k A_net G with Cowper's k of the full
+//! annulus: no published coefficient for a cut annulus was found, and shear is a correction
+//! there (our assumption, stated in the design note).
 
 use crate::case::{BeamTheory, Case, Lining, LiningMass, Stage};
+use crate::section::opening::{net_section, Cut, NetSection};
 use crate::section::Annulus;
 
 use rayon::prelude::*;
@@ -31,8 +39,15 @@ type BandRow = [f64; HALF_BAND + 1];
 /// Meshes with more nodes than this integrate their elements in parallel.
 const PARALLEL_ELEMENTS: usize = 1000;
 
-/// Section and material data of one element, linear in the local coordinate.
+/// An opening that cuts an element: clear width (m) and azimuth (rad).
 #[derive(Debug, Clone, Copy, PartialEq)]
+pub struct OpeningCut {
+    pub width_m: f64,
+    pub azimuth_rad: f64,
+}
+
+/// Section and material data of one element, linear in the local coordinate.
+#[derive(Debug, Clone, PartialEq)]
 pub struct ElementData {
     pub z_bottom_m: f64,
     pub length_m: f64,
@@ -49,6 +64,8 @@ pub struct ElementData {
     /// every lining form is linear in the shell's D and t, so the sum over the zones that
     /// cover the element is exact.
     pub lining_coefficients: [f64; 3],
+    /// Openings over the whole element (empty for almost every element).
+    pub openings: Vec<OpeningCut>,
 }
 
 impl ElementData {
@@ -62,9 +79,43 @@ impl ElementData {
         )
     }
 
+    /// Net section at s: the annulus minus the element's openings. The validated case
+    /// guarantees the cuts fit (see `input::validate`); should they not, the gross annulus
+    /// is never used silently: the area and stiffness become NaN and the solver refuses.
+    pub fn net_section(&self, s_m: f64) -> NetSection {
+        let a = self.annulus(s_m);
+        let cuts: Result<Vec<Cut>, _> = self
+            .openings
+            .iter()
+            .map(|o| Cut::new(o.width_m, o.azimuth_rad, a.outer_diameter_m))
+            .collect();
+        match cuts.and_then(|c| net_section(&a, &c)) {
+            Ok(n) => n,
+            Err(_) => NetSection {
+                area_m2: f64::NAN,
+                centroid_m: [f64::NAN; 2],
+                second_moment_max_m4: f64::NAN,
+                second_moment_min_m4: f64::NAN,
+                min_axis_angle_rad: f64::NAN,
+                extreme_fibre_m: f64::NAN,
+            },
+        }
+    }
+
+    /// (area m2, second moment m4) of the section at s: the net values at openings.
+    fn area_and_second_moment(&self, s_m: f64) -> (Annulus, f64, f64) {
+        let a = self.annulus(s_m);
+        if self.openings.is_empty() {
+            (a, a.area_m2(), a.second_moment_m4())
+        } else {
+            let n = self.net_section(s_m);
+            (a, n.area_m2, n.second_moment_min_m4)
+        }
+    }
+
     /// Shell mass per metre at s, kg/m.
     pub fn shell_mass_kg_m(&self, s_m: f64) -> f64 {
-        self.density_kg_m3 * self.annulus(s_m).area_m2()
+        self.density_kg_m3 * self.area_and_second_moment(s_m).1
     }
 
     /// Lining mass per metre at s, kg/m.
@@ -77,15 +128,15 @@ impl ElementData {
 
 impl ElementProperties for ElementData {
     fn bending_stiffness_nm2(&self, s_m: f64) -> f64 {
-        self.elastic_modulus_pa * self.annulus(s_m).second_moment_m4()
+        self.elastic_modulus_pa * self.area_and_second_moment(s_m).2
     }
 
     fn shear_stiffness_n(&self, s_m: f64) -> f64 {
         if !self.timoshenko {
             return f64::INFINITY;
         }
-        let a = self.annulus(s_m);
-        a.cowper_shear_coefficient(self.poisson_ratio) * self.shear_modulus_pa * a.area_m2()
+        let (a, area, _) = self.area_and_second_moment(s_m);
+        a.cowper_shear_coefficient(self.poisson_ratio) * self.shear_modulus_pa * area
     }
 
     fn mass_per_length_kg_m(&self, s_m: f64) -> f64 {
@@ -94,20 +145,19 @@ impl ElementProperties for ElementData {
 
     fn rotary_inertia_kg_m(&self, s_m: f64) -> f64 {
         if self.timoshenko {
-            self.density_kg_m3 * self.annulus(s_m).second_moment_m4()
+            self.density_kg_m3 * self.area_and_second_moment(s_m).2
         } else {
             0.0
         }
     }
 
     fn compliance_rates(&self, s_m: f64) -> (f64, f64) {
-        let a = self.annulus(s_m);
-        let inv_ei = 1.0 / (self.elastic_modulus_pa * a.second_moment_m4());
+        let (a, area, second_moment) = self.area_and_second_moment(s_m);
+        let inv_ei = 1.0 / (self.elastic_modulus_pa * second_moment);
         if !self.timoshenko {
             return (inv_ei, 0.0);
         }
-        let kga =
-            a.cowper_shear_coefficient(self.poisson_ratio) * self.shear_modulus_pa * a.area_m2();
+        let kga = a.cowper_shear_coefficient(self.poisson_ratio) * self.shear_modulus_pa * area;
         (inv_ei, 1.0 / kga)
     }
 
@@ -117,7 +167,17 @@ impl ElementProperties for ElementData {
         let dt =
             (self.wall_top_m - self.wall_bottom_m).abs() / self.wall_bottom_m.min(self.wall_top_m);
         // I ~ D^3 t for thin walls: the variation of EI is ~3 dD/D + dt/t.
-        3.0 * dd + dt
+        let gross = 3.0 * dd + dt;
+        if self.openings.is_empty() {
+            return gross;
+        }
+        // The net I also moves with beta = asin(w / D): measure its change end to end and
+        // keep a factor 2 of margin for the curvature in between.
+        let (i0, i1) = (
+            self.area_and_second_moment(0.0).2,
+            self.area_and_second_moment(self.length_m).2,
+        );
+        gross.max(2.0 * (i0 - i1).abs() / i0.min(i1))
     }
 }
 
@@ -144,8 +204,12 @@ pub struct BeamModel {
     pub mass: SymBand,
     /// Stiffness incl. base springs (band over all dofs; removed dofs as identity rows).
     pub stiffness: SymBand,
-    /// Concentrated masses lumped to nodes: (node index, kg).
+    /// Concentrated masses lumped to nodes: (node index, kg); not the foundation mass, which
+    /// is only in `mass`.
     pub point_masses: Vec<(usize, f64)>,
+    /// Concentrated rotary inertias at nodes: (node index, kg m2); the foundation's at node
+    /// 0 when the base can rotate.
+    pub point_rotary_inertias: Vec<(usize, f64)>,
     /// Base spring stiffnesses: lateral N/m and rotational N m/rad; `None` = rigid.
     pub base_lateral_n_per_m: Option<f64>,
     pub base_rotational_nm_per_rad: Option<f64>,
@@ -178,6 +242,15 @@ pub fn mesh_nodes(case: &Case, stage: &Stage, min_elements: usize) -> Vec<f64> {
             required.push(p.z_m);
         }
     }
+    let zone_limits = case.shell.zones.iter().map(|z| (z.from_z_m, z.to_z_m));
+    let opening_limits = case.shell.openings.iter().map(|o| (o.from_z_m, o.to_z_m));
+    for (from, to) in zone_limits.chain(opening_limits) {
+        for z in [from, to] {
+            if z > 0.0 && z < height {
+                required.push(z);
+            }
+        }
+    }
     required.sort_by(|a, b| a.total_cmp(b));
     let tol = 1e-9 * height;
     required.dedup_by(|a, b| (*a - *b).abs() <= tol);
@@ -207,9 +280,19 @@ impl BeamModel {
         let timoshenko = shell.beam == BeamTheory::Timoshenko;
         let n_nodes = z_m.len();
         let data_of = |w: &[f64]| {
-            let (d0, t0) = shell.geometry_at(w[0]);
+            // At a wall step the element above starts on the upper station's section and the
+            // element below ends on the lower one's.
+            let (d0, t0) = shell.geometry_above(w[0]);
             let (d1, t1) = shell.geometry_at(w[1]);
             let mid = 0.5 * (w[0] + w[1]);
+            let material = shell.material_at(mid);
+            let openings = shell
+                .openings_at(mid)
+                .map(|o| OpeningCut {
+                    width_m: o.width_m,
+                    azimuth_rad: o.azimuth_rad,
+                })
+                .collect();
             let mut lining_coefficients = [0.0; 3];
             if stage.lining {
                 for l in case
@@ -230,12 +313,13 @@ impl BeamModel {
                 outer_diameter_top_m: d1,
                 wall_bottom_m: t0,
                 wall_top_m: t1,
-                elastic_modulus_pa: shell.elastic_modulus_pa * stage.stiffness_factor,
-                shear_modulus_pa: shell.shear_modulus_pa() * stage.stiffness_factor,
-                poisson_ratio: shell.poisson_ratio,
-                density_kg_m3: shell.density_kg_m3,
+                elastic_modulus_pa: material.elastic_modulus_pa * stage.stiffness_factor,
+                shear_modulus_pa: material.shear_modulus_pa() * stage.stiffness_factor,
+                poisson_ratio: material.poisson_ratio,
+                density_kg_m3: material.density_kg_m3,
                 timoshenko,
                 lining_coefficients,
+                openings,
             }
         };
         let element_data: Vec<ElementData> = if n_nodes > PARALLEL_ELEMENTS {
@@ -292,6 +376,7 @@ impl BeamModel {
         }
         let mut point_masses = Vec::new();
         let tol = 1e-9 * z_m[n_nodes - 1];
+        let mut point_rotary_inertias = Vec::new();
         for p in case
             .point_masses
             .iter()
@@ -300,10 +385,25 @@ impl BeamModel {
             if let Some(i) = z_m.iter().position(|z| (z - p.z_m).abs() <= tol) {
                 mass.add(4 * i, 4 * i, p.mass_kg);
                 point_masses.push((i, p.mass_kg));
+                if p.rotary_inertia_kg_m2 > 0.0 {
+                    mass.add(4 * i + 1, 4 * i + 1, p.rotary_inertia_kg_m2);
+                    point_rotary_inertias.push((i, p.rotary_inertia_kg_m2));
+                }
             }
         }
         let lateral = case.base.and_then(|b| b.lateral_n_per_m);
         let rotational = case.base.and_then(|b| b.rotational_nm_per_rad);
+        // The foundation's mass and rotary inertia move with the springs: on a rigid
+        // direction they do not move at all (the reader warns that they are ignored).
+        let inertia = case.base_inertia;
+        if lateral.is_some() && inertia.mass_kg > 0.0 {
+            // Not a point mass of the shell: it stays out of m_e and the inertia loads.
+            mass.add(0, 0, inertia.mass_kg);
+        }
+        if rotational.is_some() && inertia.rotary_inertia_kg_m2 > 0.0 {
+            mass.add(1, 1, inertia.rotary_inertia_kg_m2);
+            point_rotary_inertias.push((0, inertia.rotary_inertia_kg_m2));
+        }
         match lateral {
             Some(k) => stiffness.add(0, 0, k),
             None => {
@@ -334,6 +434,7 @@ impl BeamModel {
             mass,
             stiffness,
             point_masses,
+            point_rotary_inertias,
             base_lateral_n_per_m: lateral,
             base_rotational_nm_per_rad: rotational,
         }

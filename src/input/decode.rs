@@ -12,7 +12,7 @@ use serde::de::DeserializeOwned;
 use toml::{Table, Value};
 
 use super::issue::{nearest, suggestion, ValidationIssue};
-use super::raw::{RawCase, RawShell, RawStation, CASE_KEYS};
+use super::raw::{RawCase, RawShell, RawStation, RawZone, CASE_KEYS};
 
 /// Retries per table; each retry removes one key, so this bounds the work on hostile input.
 const MAX_RETRIES: usize = 256;
@@ -58,6 +58,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     };
     let lining = decode_optional_array(table.remove("lining"), "lining", &mut issues);
     let point_mass = decode_optional_array(table.remove("point_mass"), "point_mass", &mut issues);
+    let opening = decode_optional_array(table.remove("opening"), "opening", &mut issues);
     let base = decode_optional_table(table.remove("base"), "base", &mut issues);
     let stage = table
         .remove("stage")
@@ -82,6 +83,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
         shell,
         lining,
         point_mass,
+        opening,
         base,
         stage,
         wind,
@@ -98,6 +100,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
             Some(shell),
             Some(lining),
             Some(point_mass),
+            Some(opening),
             Some(base),
             stage,
             Some(wind),
@@ -122,6 +125,7 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
                 shell,
                 lining: lining.unwrap_or_default(),
                 point_mass: point_mass.unwrap_or_default(),
+                opening: opening.unwrap_or_default(),
                 base,
                 stage,
                 wind,
@@ -161,14 +165,21 @@ fn decode_shell(value: Value, issues: &mut Vec<ValidationIssue>) -> Option<RawSh
         }
         None => None,
     };
+    // `[[shell.zone]]` entries likewise, so a problem names the zone's position.
+    let zone_value = table.remove("zone");
     let shell: Option<RawShell> = decode_table(table, "shell", issues);
     let stations: Option<Option<Vec<RawStation>>> = match stations_array {
         None => Some(None),
         Some(items) => decode_array(Value::Array(items), "shell.stations", issues).map(Some),
     };
+    let zones: Option<Option<Vec<RawZone>>> =
+        decode_optional_array(zone_value, "shell.zone", issues);
     let mut shell = shell?;
     if let Some(stations) = stations? {
         shell.stations = Some(stations);
+    }
+    if let Some(zones) = zones? {
+        shell.zone = zones;
     }
     Some(shell)
 }

@@ -41,6 +41,11 @@ pub const MAX_STATIONS: usize = 100_000;
 pub const MAX_POINT_MASSES: usize = 1_000;
 /// Most linings: one per corbel zone, a few dozen at most.
 pub const MAX_LININGS: usize = 1_000;
+/// Most concrete zones: one per change of grade, a handful in practice.
+pub const MAX_ZONES: usize = 1_000;
+/// Most openings: flue inlets, access doors and ducts, a few dozen at most; the pairwise
+/// overlap check stays small.
+pub const MAX_OPENINGS: usize = 200;
 /// Most construction stages: a slipformed shell is checked at a handful of heights.
 pub const MAX_STAGES: usize = 100;
 
@@ -89,6 +94,20 @@ pub fn check_counts(raw: &RawCase, csv: Option<&CsvStations>) -> Vec<ValidationI
             MAX_LININGS,
             "linings",
             "one per corbel zone",
+        ),
+        (
+            "shell.zone".to_string(),
+            raw.shell.zone.len(),
+            MAX_ZONES,
+            "concrete zones",
+            "one per change of concrete grade",
+        ),
+        (
+            "opening".to_string(),
+            raw.opening.len(),
+            MAX_OPENINGS,
+            "openings",
+            "flue inlets, doors and ducts, a few dozen at most",
         ),
         (
             "stage".to_string(),

@@ -1,4 +1,4 @@
-//! Rules for the free text of a case (title, stage names, point-mass labels, `[project]`,
+//! Rules for the free text of a case (title, stage names, point-mass and opening labels, `[project]`,
 //! a remedy's stage) and the escaping of user text printed to a terminal.
 //!
 //! Names are copied into every SVG, `report.html`, the CSVs and the terminal. A control
@@ -93,6 +93,11 @@ fn names(raw: &RawCase) -> Vec<(String, &str)> {
             all.push((format!("point_mass[{i}].label"), l.as_str()));
         }
     }
+    for (i, o) in raw.opening.iter().enumerate() {
+        if let Some(l) = &o.label {
+            all.push((format!("opening[{i}].label"), l.as_str()));
+        }
+    }
     if let Some(r) = &raw.remedy {
         if let Some(s) = r.tmd.as_ref().and_then(|t| t.stage.as_ref()) {
             all.push(("remedy.tmd.stage".to_string(), s.as_str()));
@@ -159,6 +164,9 @@ pub fn neutralise(case: &mut Case) {
     }
     for pm in &mut case.point_masses {
         pm.label = neutral(&pm.label);
+    }
+    for o in &mut case.shell.openings {
+        o.label = neutral(&o.label);
     }
     if let Some(r) = &mut case.remedy {
         if let Some(s) = r.tmd.as_mut().and_then(|t| t.stage.as_mut()) {

@@ -92,6 +92,19 @@ pub fn case_warnings(case: &Case) -> Vec<String> {
             CONCRETE_E_GPA.1
         ));
     }
+    for (i, z) in case.shell.zones.iter().enumerate() {
+        if let Some(e) = z.elastic_modulus_pa.map(|e| e / 1e9) {
+            if !(CONCRETE_E_GPA.0..=CONCRETE_E_GPA.1).contains(&e) {
+                out.push(format!(
+                    "shell.zone[{i}].elastic_modulus_gpa = {}: outside the plausible {}-{} GPa \
+                     of structural concrete; a slipped decimal point (3.4 or 340 for 34)?",
+                    num(e),
+                    CONCRETE_E_GPA.0,
+                    CONCRETE_E_GPA.1
+                ));
+            }
+        }
+    }
     if let Some(w) = &case.wind {
         if w.reference_speed_m_s > MAX_REFERENCE_SPEED_M_S {
             out.push(format!(
@@ -148,6 +161,34 @@ pub fn case_warnings(case: &Case) -> Vec<String> {
         }
     }
     out.extend(spring_warnings(case));
+    out.extend(base_inertia_warnings(case));
+    out
+}
+
+/// A foundation mass or rotary inertia on a base that cannot move that way is ignored.
+fn base_inertia_warnings(case: &Case) -> Vec<String> {
+    let b = case.base_inertia;
+    let lateral = case.base.and_then(|s| s.lateral_n_per_m).is_some();
+    let rotational = case.base.and_then(|s| s.rotational_nm_per_rad).is_some();
+    let why = |spring: &str| match case.base {
+        None => "the base is fixed (no [base] springs)".to_string(),
+        Some(_) => format!("the base is rigid in that direction (no base.{spring})"),
+    };
+    let mut out = Vec::new();
+    if b.mass_kg > 0.0 && !lateral {
+        out.push(format!(
+            "base.mass_kg = {}: ignored, {}; the foundation mass moves only with a lateral              spring",
+            num(b.mass_kg),
+            why("lateral_stiffness_mn_per_m")
+        ));
+    }
+    if b.rotary_inertia_kg_m2 > 0.0 && !rotational {
+        out.push(format!(
+            "base.rotary_inertia_kg_m2 = {}: ignored, {}; the foundation's rotary inertia              moves only with a rotational spring",
+            num(b.rotary_inertia_kg_m2),
+            why("rotational_stiffness_gnm_per_rad")
+        ));
+    }
     out
 }
 

@@ -19,6 +19,8 @@ pub struct RawCase {
     pub lining: Vec<RawLining>,
     #[serde(default)]
     pub point_mass: Vec<RawPointMass>,
+    #[serde(default)]
+    pub opening: Vec<RawOpening>,
     pub base: Option<RawBase>,
     /// `None` = the default stages; `Some(vec![])` (an explicit empty array) is an error.
     pub stage: Option<Vec<RawStage>>,
@@ -45,6 +47,7 @@ pub const CASE_KEYS: &[&str] = &[
     "shell",
     "lining",
     "point_mass",
+    "opening",
     "base",
     "stage",
     "wind",
@@ -118,6 +121,32 @@ pub struct RawShell {
     pub surface_roughness_mm: Option<f64>,
     /// f_ck, MPa (needed by the resistance checks).
     pub characteristic_strength_mpa: Option<f64>,
+    /// `[[shell.zone]]`: concrete zones.
+    #[serde(default)]
+    pub zone: Vec<RawZone>,
+}
+
+/// `[[shell.zone]]`: a height range with any of its own material values.
+#[derive(Debug, Clone, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawZone {
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    pub elastic_modulus_gpa: Option<f64>,
+    pub density_kg_m3: Option<f64>,
+    pub poisson_ratio: Option<f64>,
+    pub characteristic_strength_mpa: Option<f64>,
+}
+
+/// `[[opening]]`: a flue or access opening.
+#[derive(Debug, Clone, PartialEq, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawOpening {
+    pub from_z_m: f64,
+    pub to_z_m: f64,
+    pub width_m: f64,
+    pub azimuth_deg: Option<f64>,
+    pub label: Option<String>,
 }
 
 /// `beam = "timoshenko" | "euler-bernoulli"`.
@@ -156,6 +185,7 @@ pub struct RawLining {
 pub struct RawPointMass {
     pub z_m: f64,
     pub mass_kg: f64,
+    pub rotary_inertia_kg_m2: Option<f64>,
     pub label: Option<String>,
     /// Names of the stages the mass is present in; `None` = every stage.
     pub stages: Option<Vec<String>>,
@@ -167,6 +197,8 @@ pub struct RawPointMass {
 pub struct RawBase {
     pub rotational_stiffness_gnm_per_rad: Option<f64>,
     pub lateral_stiffness_mn_per_m: Option<f64>,
+    pub mass_kg: Option<f64>,
+    pub rotary_inertia_kg_m2: Option<f64>,
 }
 
 /// `[[stage]]`.

@@ -121,20 +121,44 @@ pub fn shape_csv(stages: &[StageModes]) -> Result<Vec<u8>, ReportError> {
     })
 }
 
+/// sections.csv rows: one per node with the section just above it (net values at
+/// openings); where the section jumps (wall step, zone limit, opening limit) the section just
+/// below comes first, on a row of its own with the same height.
 pub fn section_rows(stages: &[StageModes]) -> Vec<SectionCsvRow> {
     let mut rows = Vec::new();
     for s in stages {
         let m = &s.model;
+        let stage = safe_text(&s.stage.name);
+        let mut below = m.sections_below.iter().peekable();
         for i in 0..m.z_m.len() {
+            if let Some((_, b)) = below.next_if(|(k, _)| *k == i) {
+                rows.push(SectionCsvRow {
+                    stage: stage.clone(),
+                    z_m: m.z_m[i],
+                    outer_diameter_m: b.outer_diameter_m,
+                    wall_m: b.wall_m,
+                    area_m2: b.area_m2,
+                    second_moment_m4: b.second_moment_m4,
+                    section_modulus_m3: b.section_modulus_m3,
+                    shell_mass_kg_m: b.shell_mass_kg_m,
+                    lining_mass_kg_m: m.lining_mass_kg_m[i],
+                });
+            }
             let a = Annulus::new(m.outer_diameter_m[i], m.wall_m[i]);
+            let area_m2 = m.area_m2.get(i).copied().unwrap_or_else(|| a.area_m2());
+            let section_modulus_m3 = m
+                .section_modulus_m3
+                .get(i)
+                .copied()
+                .unwrap_or_else(|| a.section_modulus_m3());
             rows.push(SectionCsvRow {
-                stage: safe_text(&s.stage.name),
+                stage: stage.clone(),
                 z_m: m.z_m[i],
                 outer_diameter_m: m.outer_diameter_m[i],
                 wall_m: m.wall_m[i],
-                area_m2: a.area_m2(),
-                second_moment_m4: a.second_moment_m4(),
-                section_modulus_m3: a.section_modulus_m3(),
+                area_m2,
+                second_moment_m4: m.second_moment_m4[i],
+                section_modulus_m3,
                 shell_mass_kg_m: m.shell_mass_kg_m[i],
                 lining_mass_kg_m: m.lining_mass_kg_m[i],
             });

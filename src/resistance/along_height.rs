@@ -18,7 +18,7 @@ use super::fatigue::SnCurve;
 use super::materials::{Concrete, Steel};
 use super::ultimate::RcSection;
 use super::ResistanceError;
-use crate::case::ResistanceSpec;
+use crate::case::{Opening, ResistanceSpec};
 use crate::modal::StageModel;
 
 /// gamma_F,fat, EN 1992-1-1 6.8.4 (1) note (recommended 1.0; public copy).
@@ -128,9 +128,19 @@ pub struct StageResistance {
     pub damage_z_m: f64,
 }
 
-/// Sectors removed at height z (openings). None yet: the openings input plugs in here.
-pub fn sectors_at(_z_m: f64) -> Vec<Sector> {
-    Vec::new()
+/// Sectors removed at height `z_m` by the openings there: half-angle asin(width / D_outer)
+/// at the section's own outer diameter (the usual idealisation of the trade, as in the
+/// beam model's net section, [`crate::section::opening`]).
+pub fn sectors_at(openings: &[Opening], z_m: f64, outer_diameter_m: f64) -> Vec<Sector> {
+    openings
+        .iter()
+        .filter(|o| o.from_z_m <= z_m && z_m <= o.to_z_m)
+        .map(|o| Sector {
+            // Validation keeps every opening narrower than the shell; clamp for safety.
+            half_angle_rad: (o.width_m / outer_diameter_m).clamp(0.0, 1.0).asin(),
+            azimuth_rad: o.azimuth_rad,
+        })
+        .collect()
 }
 
 fn annulus_at(spec: &ResistanceSpec, model: &StageModel, i: usize) -> RcAnnulus {
@@ -143,7 +153,7 @@ fn annulus_at(spec: &ResistanceSpec, model: &StageModel, i: usize) -> RcAnnulus 
         zone.inner_ratio,
         zone.outer_cover_m,
         zone.inner_cover_m,
-        sectors_at(z),
+        sectors_at(&spec.openings, z, model.outer_diameter_m[i]),
     )
 }
 

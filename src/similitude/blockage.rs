@@ -118,6 +118,8 @@ mod tests {
 
     fn cone() -> Shell {
         Shell {
+            zones: vec![],
+            openings: vec![],
             elastic_modulus_pa: 30e9,
             density_kg_m3: 2500.0,
             poisson_ratio: 0.2,

@@ -57,6 +57,8 @@ struct File {
     lining: Vec<FileLining>,
     #[serde(skip_serializing_if = "Vec::is_empty")]
     point_mass: Vec<FilePointMass>,
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    opening: Vec<FileOpening>,
     #[serde(skip_serializing_if = "Option::is_none")]
     base: Option<FileBase>,
     stage: Vec<FileStage>,
@@ -103,9 +105,25 @@ struct FileLining {
 struct FilePointMass {
     z_m: f64,
     mass_kg: f64,
+    #[serde(skip_serializing_if = "is_zero")]
+    rotary_inertia_kg_m2: f64,
     label: String,
     #[serde(skip_serializing_if = "Option::is_none")]
     stages: Option<Vec<String>>,
+}
+
+fn is_zero(v: &f64) -> bool {
+    *v == 0.0
+}
+
+/// An opening, geometrically similar (every length / k_l).
+#[derive(Serialize)]
+struct FileOpening {
+    from_z_m: f64,
+    to_z_m: f64,
+    width_m: f64,
+    azimuth_deg: f64,
+    label: String,
 }
 
 #[derive(Serialize)]
@@ -114,6 +132,10 @@ struct FileBase {
     rotational_stiffness_gnm_per_rad: Option<f64>,
     #[serde(skip_serializing_if = "Option::is_none")]
     lateral_stiffness_mn_per_m: Option<f64>,
+    #[serde(skip_serializing_if = "is_zero")]
+    mass_kg: f64,
+    #[serde(skip_serializing_if = "is_zero")]
+    rotary_inertia_kg_m2: f64,
 }
 
 #[derive(Serialize)]
@@ -291,16 +313,42 @@ pub fn model_case(
         .map(|(p, (label, kg))| FilePointMass {
             z_m: r(p.z_m / k.length),
             mass_kg: *kg,
+            // J = m r^2: mass scale times length scale squared.
+            rotary_inertia_kg_m2: r(p.rotary_inertia_kg_m2 / (k.point_mass * k.length * k.length)),
             label: label.clone(),
             stages: p.stages.clone(),
         })
         .collect();
+    let opening = prototype
+        .shell
+        .openings
+        .iter()
+        .map(|o| FileOpening {
+            from_z_m: r(o.from_z_m / k.length),
+            to_z_m: r(o.to_z_m / k.length),
+            width_m: r(o.width_m / k.length),
+            azimuth_deg: o.azimuth_rad.to_degrees(),
+            label: o.label.clone(),
+        })
+        .collect();
+    if !prototype.shell.zones.is_empty() {
+        warnings.push(
+            "shell.zone: the model is made of one material, so the concrete zones' own E, \
+             density and Poisson's ratio are not reproduced in the model case; compare the \
+             model and prototype frequencies in scale_check.csv"
+                .to_string(),
+        );
+    }
 
     let base = prototype.base.map(|b| FileBase {
         rotational_stiffness_gnm_per_rad: b
             .rotational_nm_per_rad
             .map(|v| r(v / k.rotational_stiffness / 1e9)),
         lateral_stiffness_mn_per_m: b.lateral_n_per_m.map(|v| r(v / k.lateral_stiffness / 1e6)),
+        mass_kg: r(prototype.base_inertia.mass_kg / k.point_mass),
+        rotary_inertia_kg_m2: r(
+            prototype.base_inertia.rotary_inertia_kg_m2 / (k.point_mass * k.length * k.length)
+        ),
     });
 
     let stage = prototype
@@ -390,6 +438,7 @@ pub fn model_case(
         },
         lining,
         point_mass,
+        opening,
         base,
         stage,
         wind,

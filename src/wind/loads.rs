@@ -119,8 +119,9 @@ pub fn effects(
     internal_forces(shape, scale, w, point_forces_n, &mut shear, &mut moment);
     (0..n)
         .map(|i| {
-            let d = model.outer_diameter_m[i];
-            let section_modulus_m3 = model.second_moment_m4[i] / (0.5 * d);
+            // The net section's modulus at openings and the weaker side where the section
+            // jumps (see `StageModel::section_modulus_m3`).
+            let section_modulus_m3 = model.stress_modulus_m3(i);
             LoadPoint {
                 z_m: model.z_m[i],
                 line_force_n_m: line_force_n_m[i],

@@ -180,7 +180,13 @@ impl<'a> ModeShape<'a> {
 /// outside the zone.
 #[inline]
 pub fn element_mass_kg_m(model: &StageModel, e: usize, t: f64) -> f64 {
-    let shell = model.shell_mass_kg_m[e] * (1.0 - t) + model.shell_mass_kg_m[e + 1] * t;
+    // Per-element end values where the model has them: the shell mass jumps at wall steps,
+    // zone limits and opening limits.
+    let (s0, s1) = match model.element_shell_mass_kg_m.get(e) {
+        Some(&[a, b]) => (a, b),
+        None => (model.shell_mass_kg_m[e], model.shell_mass_kg_m[e + 1]),
+    };
+    let shell = s0 * (1.0 - t) + s1 * t;
     let (l0, l1) = (model.lining_mass_kg_m[e], model.lining_mass_kg_m[e + 1]);
     let lining = if l0 > 0.0 && l1 > 0.0 {
         l0 * (1.0 - t) + l1 * t

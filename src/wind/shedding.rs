@@ -143,6 +143,10 @@ mod tests {
             lining_mass_kg_m: zeros.clone(),
             point_masses: vec![],
             second_moment_m4: zeros,
+            element_shell_mass_kg_m: vec![],
+            area_m2: vec![],
+            section_modulus_m3: vec![],
+            sections_below: vec![],
         };
         let wind = Wind {
             reference_speed_m_s: 15.0,

@@ -13,8 +13,11 @@ pub fn shell_case(
     beam: BeamTheory,
 ) -> Case {
     Case {
+        base_inertia: Default::default(),
         title: "test".into(),
         shell: Shell {
+            zones: vec![],
+            openings: vec![],
             elastic_modulus_pa,
             density_kg_m3,
             poisson_ratio: 0.2,

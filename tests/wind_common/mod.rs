@@ -23,8 +23,11 @@ pub fn uniform_wind(speed: f64) -> Wind {
 
 pub fn case(wind: Wind, method: VortexMethod, criteria: Criteria) -> Case {
     Case {
+        base_inertia: Default::default(),
         title: "invented test case".into(),
         shell: Shell {
+            zones: vec![],
+            openings: vec![],
             elastic_modulus_pa: 32e9,
             density_kg_m3: 2500.0,
             poisson_ratio: 0.2,
@@ -100,6 +103,10 @@ pub fn uniform_tube(h: f64, d: f64, t: f64, m: f64, n_el: usize) -> StageModel {
         lining_mass_kg_m: vec![0.0; n],
         point_masses: vec![],
         second_moment_m4: vec![i; n],
+        element_shell_mass_kg_m: vec![],
+        area_m2: vec![],
+        section_modulus_m3: vec![],
+        sections_below: vec![],
     }
 }
 

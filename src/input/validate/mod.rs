@@ -29,9 +29,11 @@ use super::raw::{
 use super::stations_csv::CsvStations;
 
 mod along_wind;
+mod base;
 mod design;
 mod lining;
 mod model;
+mod opening;
 mod reinforcement;
 mod remedy;
 mod shell;
@@ -40,6 +42,7 @@ mod stage;
 mod tests;
 mod vortex;
 mod wind;
+mod zone;
 
 use along_wind::check_along_wind;
 use design::check_design;
@@ -196,8 +199,14 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     let mut c = Checker::default();
     c.issues.extend(super::limits::check_ranges(raw));
     c.issues.extend(super::names::check_names(raw));
-    let shell = check_shell(&mut c, raw, csv);
+    let mut shell = check_shell(&mut c, raw, csv);
     let height_m = shell.as_ref().map(Shell::height_m);
+    let zones = zone::check_zones(&mut c, &raw.shell.zone, height_m);
+    let openings = opening::check_openings(&mut c, &raw.opening, shell.as_ref());
+    if let Some(s) = &mut shell {
+        s.zones = zones;
+        s.openings = openings;
+    }
     if let Some(s) = &shell {
         c.issues.extend(super::physical::check(raw, s, csv));
     }
@@ -215,7 +224,9 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
         let z_ok = c.finite(&format!("{p}.z_m"), pm.z_m)
             && within_shell(&mut c, &format!("{p}.z_m"), pm.z_m, height_m);
         let m_ok = c.positive(&format!("{p}.mass_kg"), pm.mass_kg);
-        if z_ok && m_ok {
+        let rotary_inertia_kg_m2 = pm.rotary_inertia_kg_m2.unwrap_or(0.0);
+        let j_ok = c.non_negative(&format!("{p}.rotary_inertia_kg_m2"), rotary_inertia_kg_m2);
+        if z_ok && m_ok && j_ok {
             let label = match pm.label.as_deref().map(str::trim) {
                 Some(l) if !l.is_empty() => l.to_string(),
                 _ => format!("point mass at {} m", num(pm.z_m)),
@@ -223,6 +234,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             point_masses.push(PointMass {
                 z_m: pm.z_m,
                 mass_kg: pm.mass_kg,
+                rotary_inertia_kg_m2,
                 label,
                 stages: pm
                     .stages
@@ -232,20 +244,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
         }
     }
 
-    let base = raw.base.as_ref().and_then(|b| {
-        let rot = c.optional_positive(
-            "base.rotational_stiffness_gnm_per_rad",
-            b.rotational_stiffness_gnm_per_rad,
-        );
-        let lat = c.optional_positive(
-            "base.lateral_stiffness_mn_per_m",
-            b.lateral_stiffness_mn_per_m,
-        );
-        (rot.is_some() || lat.is_some()).then(|| BaseSprings {
-            rotational_nm_per_rad: rot.map(|v| v * 1e9),
-            lateral_n_per_m: lat.map(|v| v * 1e6),
-        })
-    });
+    let (base, base_inertia) = base::check_base(&mut c, raw.base.as_ref());
 
     let before_stages = c.issues.len();
     let stages = check_stages(&mut c, raw, height_m);
@@ -295,6 +294,7 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
             linings,
             point_masses,
             base,
+            base_inertia,
             stages,
             wind: wind.flatten(),
             along_wind,

@@ -204,5 +204,7 @@ pub(super) fn check_resistance(
         steel_modulus_pa: es * 1e9,
         zones,
         factors,
+        concrete_zones: shell.map(|s| s.zones.clone()).unwrap_or_default(),
+        openings: shell.map(|s| s.openings.clone()).unwrap_or_default(),
     })
 }

@@ -1,5 +1,6 @@
 //! Validation of the `[shell]` section and its station table (inline or CSV): diameters,
-//! walls, heights, materials.
+//! walls, heights (two stations at one height are a wall step, three an error), materials.
+//! Concrete zones are checked in `zone`, openings in `opening`.
 //!
 //! Units and sources as in the parent module.
 
@@ -100,6 +101,8 @@ pub(super) fn check_shell(
                 wall_m: r.wall_m,
             })
             .collect(),
+        zones: Vec::new(),
+        openings: Vec::new(),
     })
 }
 
@@ -120,6 +123,7 @@ pub(super) fn check_stations(
     }
     let height_m = rows.last().map(|(_, r)| r.z_m).unwrap_or(0.0);
     let mut previous_z: Option<f64> = None;
+    let mut step_height: Option<f64> = None;
     for (i, (place, st)) in rows.iter().enumerate() {
         let z_path = place.field("z_m");
         if c.finite(&z_path, st.z_m) {
@@ -132,11 +136,30 @@ pub(super) fn check_stations(
             }
             if let Some(prev) = previous_z {
                 if st.z_m == prev {
-                    c.fail(
-                        &z_path,
-                        st.z_m,
-                        "same height as the previous station (duplicate)",
-                    );
+                    // A wall step: the previous station holds below, this one above.
+                    if step_height == Some(st.z_m) {
+                        c.fail(
+                            &z_path,
+                            st.z_m,
+                            "a third station at the height of a wall step; a step is exactly \
+                             two stations (the first holds below, the second above)",
+                        );
+                    } else if st.z_m == 0.0 {
+                        c.fail(
+                            &z_path,
+                            st.z_m,
+                            "a wall step at the base (z = 0) has no shell below it; give one \
+                             station at z = 0",
+                        );
+                    } else if i + 1 == rows.len() {
+                        c.fail(
+                            &z_path,
+                            st.z_m,
+                            "a wall step at the top has no shell above it; give one station \
+                             at the top",
+                        );
+                    }
+                    step_height = Some(st.z_m);
                 } else if st.z_m < prev {
                     c.fail(
                         &z_path,
@@ -208,6 +231,107 @@ pub(super) fn check_stations(
                     num(st.outer_diameter_m)
                 ),
             );
+        }
+    }
+}
+
+#[cfg(test)]
+mod step_tests {
+    use std::path::Path;
+
+    use crate::input::{parse_case, InputError};
+
+    /// An invented shell with a wall step at 40 m (0.40 m below, 0.30 m above).
+    const CASE: &str = r#"
+[shell]
+elastic_modulus_gpa = 32.0
+density_kg_m3 = 2500.0
+stations = [
+  { z_m = 0.0,   outer_diameter_m = 12.0, wall_m = 0.40 },
+  { z_m = 40.0,  outer_diameter_m = 11.0, wall_m = 0.40 },
+  { z_m = 40.0,  outer_diameter_m = 11.0, wall_m = 0.30 },
+  { z_m = 100.0, outer_diameter_m = 8.0,  wall_m = 0.20 },
+]
+"#;
+
+    fn errors(text: &str) -> Vec<String> {
+        match parse_case(text, Path::new("."), "t.toml") {
+            Ok(_) => vec![],
+            Err(InputError::Invalid { issues, .. }) => {
+                issues.iter().map(|i| i.to_string()).collect()
+            }
+            Err(e) => vec![e.to_string()],
+        }
+    }
+
+    #[test]
+    fn a_step_holds_the_lower_station_below_and_the_upper_above() {
+        let case = parse_case(CASE, Path::new("."), "t.toml").unwrap();
+        assert_eq!(case.shell.geometry_at(40.0), (11.0, 0.40));
+        assert_eq!(case.shell.geometry_above(40.0), (11.0, 0.30));
+        assert_eq!(
+            case.shell.geometry_above(70.0),
+            case.shell.geometry_at(70.0)
+        );
+    }
+
+    #[test]
+    fn three_stations_at_one_height_and_steps_at_the_ends_are_refused() {
+        let three = CASE.replacen(
+            "  { z_m = 100.0,",
+            "  { z_m = 40.0,  outer_diameter_m = 11.0, wall_m = 0.25 },\n  { z_m = 100.0,",
+            1,
+        );
+        assert_eq!(
+            errors(&three),
+            [
+                "shell.stations[3].z_m = 40: a third station at the height of a wall step; a step \
+              is exactly two stations (the first holds below, the second above)"
+            ]
+        );
+        let base = CASE.replacen(
+            "  { z_m = 40.0,  outer_diameter_m = 11.0, wall_m = 0.40 },",
+            "  { z_m = 0.0,  outer_diameter_m = 11.0, wall_m = 0.40 },",
+            1,
+        );
+        let e = errors(&base);
+        assert!(
+            e[0].starts_with("shell.stations[1].z_m = 0: a wall step at the base"),
+            "{e:?}"
+        );
+    }
+
+    #[test]
+    fn a_step_in_a_stations_csv_is_read_too() {
+        let dir = tempfile::tempdir().unwrap();
+        std::fs::write(
+            dir.path().join("s.csv"),
+            "z_m,outer_diameter_m,wall_m\n0,12,0.4\n40,11,0.4\n40,11,0.3\n100,8,0.2\n",
+        )
+        .unwrap();
+        let text = "[shell]\nelastic_modulus_gpa = 32.0\ndensity_kg_m3 = 2500.0\nstations_csv = \"s.csv\"\n";
+        let case = parse_case(text, dir.path(), "t.toml").unwrap();
+        assert_eq!(case.shell.geometry_above(40.0), (11.0, 0.3));
+        std::fs::write(
+            dir.path().join("s.csv"),
+            "z_m,outer_diameter_m,wall_m\n0,12,0.4\n40,11,0.4\n40,11,0.3\n40,11,0.2\n100,8,0.2\n",
+        )
+        .unwrap();
+        let e = errors_in(text, dir.path());
+        assert_eq!(e.len(), 1, "{e:?}");
+        assert!(
+            e[0].contains("line 5, column z_m = 40: a third station at the height of a wall step"),
+            "{e:?}"
+        );
+    }
+
+    fn errors_in(text: &str, dir: &Path) -> Vec<String> {
+        match parse_case(text, dir, "t.toml") {
+            Ok(_) => vec![],
+            Err(InputError::Invalid { issues, .. }) => {
+                issues.iter().map(|i| i.to_string()).collect()
+            }
+            Err(e) => vec![e.to_string()],
         }
     }
 }

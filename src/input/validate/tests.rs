@@ -157,7 +157,8 @@ fn station_order() {
     );
     fails_with(
         &with("z_m = 50.0,", "z_m = 100.0,"),
-        "shell.stations[2].z_m = 100: same height as the previous station (duplicate)",
+        "shell.stations[2].z_m = 100: a wall step at the top has no shell above it; give one \
+         station at the top",
     );
     fails_with(
         &with("z_m = 50.0,", "z_m = 120.0,"),

@@ -51,6 +51,7 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
     if let Some(note) = crate::report::station_table::condensed_note(&c.shell.stations) {
         let _ = writeln!(out, "<p>{}</p>", html_escape(&note));
     }
+    super::drawn::write_shell(out, c);
     out.push_str("<h3>2.2 Lining, platforms and foundation</h3>\n");
     if c.linings.is_empty() {
         out.push_str("<p>No lining.</p>\n");
@@ -120,6 +121,7 @@ pub(super) fn write(out: &mut String, input: &ReportInput) {
         ),
     };
     let _ = writeln!(out, "<p>Foundation: {}.</p>", html_escape(&base));
+    super::drawn::write_inertias(out, c);
     out.push_str("<h3>2.3 Construction stages</h3>\n");
     Table {
         head: heads(&[

@@ -13,6 +13,7 @@
 
 mod along;
 mod comparison;
+mod drawn;
 mod inputs;
 mod loads;
 mod markup;

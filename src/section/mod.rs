@@ -5,8 +5,12 @@
 //! coefficient for a hollow circular section,
 //! k = 6(1+nu)(1+m^2)^2 / ((7+6nu)(1+m^2)^2 + (20+12nu)m^2), m = d/D
 //! (G. R. Cowper, J. Appl. Mech. 33 (1966) 335-340, table 1).
+//!
+//! [`opening`]: the net section where flue and access openings cut the wall.
 
 use serde::Serialize;
+
+pub mod opening;
 
 /// Properties of one annulus section, SI.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
