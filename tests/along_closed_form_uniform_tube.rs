@@ -18,6 +18,9 @@ fn tube(h: f64, b: f64, t: f64, n: usize) -> StageModel {
     // Node at 3 m so the z_min = 2 m kink falls inside an element (the split is tested).
     let z: Vec<f64> = (0..=n).map(|i| h * i as f64 / n as f64).collect();
     let k = z.len();
+    // The annulus's own I and W (stresses use the model's section modulus).
+    let d_in = b - 2.0 * t;
+    let i_m4 = std::f64::consts::PI / 64.0 * (b.powi(4) - d_in.powi(4));
     StageModel {
         z_m: z,
         outer_diameter_m: vec![b; k],
@@ -25,10 +28,10 @@ fn tube(h: f64, b: f64, t: f64, n: usize) -> StageModel {
         shell_mass_kg_m: vec![1.0; k],
         lining_mass_kg_m: vec![0.0; k],
         point_masses: Vec::new(),
-        second_moment_m4: vec![1.0; k],
+        second_moment_m4: vec![i_m4; k],
         element_shell_mass_kg_m: vec![[1.0, 1.0]; k - 1],
         area_m2: vec![1.0; k],
-        section_modulus_m3: vec![1.0; k],
+        section_modulus_m3: vec![i_m4 / (0.5 * b); k],
         sections_below: Vec::new(),
     }
 }

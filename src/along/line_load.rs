@@ -4,7 +4,8 @@
 //! along the cantilever.
 //!
 //! Statics of a cantilever: V(z) = int_z^h w ds, M(z) = int_z^h w (s - z) ds; stress
-//! sigma = M / W with W of the gross (uncracked) annulus at the node (`section::Annulus`).
+//! sigma = M / W with W of the uncracked section at the node: the annulus, or the net
+//! section at openings and the weaker side at a step ([`StageModel::stress_modulus_m3`]).
 //! Each element is integrated with 4-point Gauss (`wind::shape::GAUSS4`), b linear in the
 //! element, q_p exact at each Gauss point, c_f linear between its node values; an element
 //! that contains z_min (where q_p has a kink) is split there.
@@ -18,7 +19,6 @@ use crate::along::force_coefficient::{
 };
 use crate::along::terrain::EnProfile;
 use crate::modal::StageModel;
-use crate::section::Annulus;
 use crate::wind::shape::GAUSS4;
 
 /// How the force coefficient is obtained along the height.
@@ -226,7 +226,8 @@ impl<'a> LoadGrid<'a> {
             .map(|i| {
                 let (z, b) = (m.z_m[i], m.outer_diameter_m[i]);
                 let q = p.peak_pressure_pa(z);
-                let w_section = Annulus::new(b, m.wall_m[i]).section_modulus_m3();
+                // Net section at openings, weaker side at steps (as the across-wind stress).
+                let w_section = m.stress_modulus_m3(i);
                 AlongPoint {
                     z_m: z,
                     mean_speed_m_s: p.mean_speed_m_s(z),

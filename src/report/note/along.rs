@@ -11,7 +11,7 @@ use crate::along::StageAlongWind;
 pub fn write(out: &mut String, along: &[StageAlongWind]) {
     out.push_str(
         "<p>Design action w(z) = c<sub>s</sub>c<sub>d</sub> c<sub>f</sub>(z) q<sub>p</sub>(z) \
-         b(z) on the gross section, EN 1991-1-4 (4.8), (6.1) with Annex B procedure 1 from the \
+         b(z), stresses on the uncracked (net at openings) section, EN 1991-1-4 (4.8), (6.1) with Annex B procedure 1 from the \
          stage's first mode, c<sub>f</sub> = c<sub>f,0</sub> ψ<sub>λ</sub> (7.19, Figures 7.28 \
          and 7.36). At a mode's critical speed the EN profile is scaled so that v<sub>m</sub> \
          at the shedding height equals v<sub>crit</sub>; the along-wind load there is the mean \
