@@ -11,7 +11,10 @@ fn demo_with(extra_wind: &str) -> (tempfile::TempDir, std::path::PathBuf) {
     let dir = tempfile::tempdir().unwrap();
     let text = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/data/demo.toml"))
         .unwrap()
+        // The demo gives the EN site wind itself: take it out, then add the test's own.
+        .replace("terrain_category = \"II\"\nbasic_speed_m_s = 26.0\n", "")
         .replace("[wind]\n", &format!("[wind]\n{extra_wind}"));
+    assert!(!extra_wind.is_empty() || !text.contains("terrain_category ="));
     let case = dir.path().join("case.toml");
     std::fs::write(&case, text).unwrap();
     (dir, case)

@@ -9,15 +9,28 @@ use predicates::prelude::*;
 const HEADER: &str =
     "stage,z_m,action,axial_force_n,design_moment_nm,resistance_moment_nm,utilisation";
 
+/// The demo without its own `[reinforcement]` and f_ck (it gives both).
+fn demo_without_steel() -> String {
+    let text =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/data/demo.toml")).unwrap();
+    let cut = text
+        .find("\n# Vertical reinforcement of the shell")
+        .expect("the demo's reinforcement block");
+    let text = text[..cut].to_string() + "\n";
+    let fck = "characteristic_strength_mpa = 40.0   # f_ck, C40/50 (invented)\n";
+    assert!(text.contains(fck));
+    let text = text.replacen(fck, "", 1);
+    assert!(!text.contains("[reinforcement]"));
+    text
+}
+
 fn demo_with_steel(outer: f64, inner: f64) -> (tempfile::TempDir, std::path::PathBuf) {
     let dir = tempfile::tempdir().unwrap();
-    let text = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/data/demo.toml"))
-        .unwrap()
-        .replacen(
-            "[shell]\n",
-            "[shell]\ncharacteristic_strength_mpa = 40.0\n",
-            1,
-        );
+    let text = demo_without_steel().replacen(
+        "[shell]\n",
+        "[shell]\ncharacteristic_strength_mpa = 40.0\n",
+        1,
+    );
     let extra = format!(
         "\n[reinforcement]\ncharacteristic_strength_mpa = 500.0\n[[reinforcement.zone]]\n\
          from_z_m = 0.0\nto_z_m = 210.0\nouter_ratio = {outer}\ninner_ratio = {inner}\n\
@@ -66,9 +79,12 @@ fn too_little_steel_exits_1_with_the_resistance_table_first() {
 #[test]
 fn without_reinforcement_one_line_says_skipped() {
     let dir = tempfile::tempdir().unwrap();
+    let case = dir.path().join("case.toml");
+    std::fs::write(&case, demo_without_steel()).unwrap();
     Command::cargo_bin("stackwake")
         .unwrap()
         .arg("check")
+        .arg(&case)
         .arg("--out")
         .arg(dir.path().join("out"))
         .assert()
