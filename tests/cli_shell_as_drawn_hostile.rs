@@ -174,3 +174,45 @@ fn a_foundation_mass_on_a_fixed_base_is_ignored_with_a_warning() {
         "{stderr}"
     );
 }
+
+#[test]
+fn a_heavy_foundation_mode_is_checked_in_the_shell_not_at_the_base() {
+    // The starter template with its commented foundation mass and rotary inertia switched on
+    // (2e7 kg on 6000 MN/m): mode 3 is the raft sliding on its spring, largest at z = 0.
+    // Shedding is evaluated at the largest antinode above the base (the foundation is not in
+    // the wind), so `check` runs instead of stopping on an infinite speed ratio at z = 0.
+    let dir = tempfile::tempdir().expect("temp dir");
+    let template = dir.path().join("starter.toml");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("new")
+        .arg(&template)
+        .assert()
+        .success();
+    let text = std::fs::read_to_string(&template)
+        .unwrap()
+        .replace("# mass_kg = 2.0e7", "mass_kg = 2.0e7")
+        .replace(
+            "# rotary_inertia_kg_m2 = 5.0e9",
+            "rotary_inertia_kg_m2 = 5.0e9",
+        );
+    assert!(text.contains("\nmass_kg = 2.0e7"));
+    let case = dir.path().join("heavy.toml");
+    std::fs::write(&case, text).unwrap();
+    let out = Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(&case)
+        .arg("--out")
+        .arg(dir.path().join("out"))
+        .timeout(Duration::from_secs(120))
+        .output()
+        .unwrap();
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert!(matches!(out.status.code(), Some(0 | 1 | 3)), "{stderr}");
+    let vortex = std::fs::read_to_string(dir.path().join("out/vortex.csv")).unwrap();
+    for row in vortex.lines().skip(1) {
+        let reference_height_m: f64 = row.split(',').nth(3).unwrap().parse().unwrap();
+        assert!(reference_height_m > 0.0, "{row}");
+    }
+}

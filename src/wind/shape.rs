@@ -161,10 +161,14 @@ impl<'a> ModeShape<'a> {
         self.integrate(a_m, b_m, |_, _, _, p| p * p)
     }
 
-    /// Node index of the largest |Phi| (the mode's largest antinode; the top for mode 1).
+    /// Node index of the largest |Phi| above the base (the mode's largest antinode; the top
+    /// for mode 1). The base node is the top of the foundation, not exposed to shedding: a
+    /// mode dominated by the foundation's own motion on its springs (a heavy raft) is checked
+    /// at its largest antinode in the shell (common practice); callers scale by Phi there.
     pub fn largest_antinode(&self) -> usize {
-        let mut best = 0;
-        for (i, p) in self.phi.iter().enumerate() {
+        let first = usize::from(self.phi.len() > 1);
+        let mut best = first;
+        for (i, p) in self.phi.iter().enumerate().skip(first) {
             if p.abs() > self.phi[best].abs() {
                 best = i;
             }
@@ -265,6 +269,9 @@ mod tests {
         let p = [0.0, -1.0, 0.5, 0.9];
         let shape = ModeShape::new(&z, &p, None);
         assert_eq!(shape.largest_antinode(), 1);
+        // A foundation-dominated shape: the base moves most, the shell's antinode is used.
+        let p = [1.0, 0.2, -0.4, 0.3];
+        assert_eq!(ModeShape::new(&z, &p, None).largest_antinode(), 2);
         assert_eq!(shape.element_at(-1.0), 0);
         assert_eq!(shape.element_at(1.0), 1);
         assert_eq!(shape.element_at(3.0), 2);
