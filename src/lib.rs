@@ -24,5 +24,6 @@ pub mod remedy;
 pub mod report;
 pub mod section;
 pub mod similitude;
+pub mod risk;
 pub mod sweep;
 pub mod wind;
