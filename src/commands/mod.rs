@@ -5,6 +5,7 @@
 pub mod check;
 pub mod modes;
 pub mod new;
+pub mod risk;
 pub mod scale;
 pub mod sweep;
 

@@ -70,6 +70,8 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     let model = decode_optional_table(table.remove("model"), "model", &mut issues);
     let remedy = decode_optional_table(table.remove("remedy"), "remedy", &mut issues);
     let project = decode_optional_table(table.remove("project"), "project", &mut issues);
+    // [[uncertain]] belongs to `risk` (read by `input::uncertain`); other commands ignore it.
+    table.remove("uncertain");
 
     if !issues.is_empty() {
         return Err(issues);

@@ -47,6 +47,7 @@ pub const CASE_KEYS: &[&str] = &[
     "model",
     "remedy",
     "project",
+    "uncertain",
 ];
 
 /// `[project]`: title-block text of the design note.

@@ -6,6 +6,7 @@ pub mod csv;
 pub mod finite;
 pub mod json;
 pub mod note;
+pub mod risk;
 pub mod scale_html;
 pub mod scale_plot;
 pub mod staging;

@@ -98,8 +98,9 @@ pub fn normal_quantile(p: f64) -> f64 {
     }
     // Abramowitz & Stegun 26.2.23 start (|error| < 4.5e-4, from memory).
     let t = (-2.0 * p.ln()).sqrt();
-    let mut x = -(t - (2.515_517 + 0.802_853 * t + 0.010_328 * t * t)
-        / (1.0 + 1.432_788 * t + 0.189_269 * t * t + 0.001_308 * t * t * t));
+    let mut x = -(t
+        - (2.515_517 + 0.802_853 * t + 0.010_328 * t * t)
+            / (1.0 + 1.432_788 * t + 0.189_269 * t * t + 0.001_308 * t * t * t));
     for _ in 0..8 {
         let f = normal_cdf(x) - p;
         let pdf = (-0.5 * x * x).exp() / (2.0 * PI).sqrt();
@@ -259,13 +260,21 @@ mod tests {
         ];
         for (p, want) in cases {
             let got = normal_quantile(p);
-            assert!((got - want).abs() <= 1e-13 * (1.0 + want.abs()), "{p}: {got} vs {want}");
+            assert!(
+                (got - want).abs() <= 1e-13 * (1.0 + want.abs()),
+                "{p}: {got} vs {want}"
+            );
         }
     }
 
     #[test]
     fn moments_follow_mean_and_cov() {
-        for family in [Family::Normal, Family::Lognormal, Family::Uniform, Family::Gumbel] {
+        for family in [
+            Family::Normal,
+            Family::Lognormal,
+            Family::Uniform,
+            Family::Gumbel,
+        ] {
             let d = Distribution::from_mean_cov(family, 32.0, 0.1);
             assert!((d.mean_untruncated() - 32.0).abs() < 1e-12, "{family:?}");
             // Median by the quantile and the CDF agree.
@@ -290,6 +299,8 @@ mod tests {
         assert!(Distribution::uniform(2.0, 3.0)
             .truncated(Some(3.5), None)
             .is_err());
-        assert!(Distribution::uniform(2.0, 2.0).truncated(Some(1.0), None).is_ok());
+        assert!(Distribution::uniform(2.0, 2.0)
+            .truncated(Some(1.0), None)
+            .is_ok());
     }
 }

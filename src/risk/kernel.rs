@@ -18,7 +18,9 @@
 
 use crate::case::{Case, Criteria, VortexMethod};
 use crate::modal::{StageModel, StageModes};
-use crate::wind::{self, approach1, approach2, profile, shedding, ModeShape, ModeVortex, WindError};
+use crate::wind::{
+    self, approach1, approach2, profile, shedding, ModeShape, ModeVortex, WindError,
+};
 
 /// The sampled values that the shortcut path takes (each `None` = the case's own).
 #[derive(Debug, Clone, Copy, Default)]
@@ -264,8 +266,7 @@ fn judge(c: &Criteria, top_diameter_m: f64, out: &mut ModeSample) {
     }
     let tip = out.tip_amplitude_m;
     out.tip_exceeds = c.tip_amplitude_m.is_some_and(|l| tip > l)
-        || c
-            .tip_amplitude_per_diameter
+        || c.tip_amplitude_per_diameter
             .is_some_and(|r| tip > r * top_diameter_m);
     out.stress_exceeds = c.stress_pa.is_some_and(|l| out.max_stress_pa > l);
     out.exceeds = out.tip_exceeds || out.stress_exceeds;

@@ -24,6 +24,7 @@
 pub mod distribution;
 pub mod kernel;
 pub mod rng;
+pub mod run;
 pub mod stats;
 
 use serde::{Deserialize, Serialize};
@@ -325,7 +326,10 @@ impl Accumulator {
     }
 
     fn inputs(&self) -> usize {
-        self.influence.len().checked_div(self.events.len()).unwrap_or(0)
+        self.influence
+            .len()
+            .checked_div(self.events.len())
+            .unwrap_or(0)
     }
 
     fn bump_influence(&mut self, event: usize, bits: &[u64]) {
@@ -474,4 +478,60 @@ pub fn case_event(modes: usize, stages: usize) -> usize {
 /// Whether the vortex method's results can be reached by the kernel.
 pub fn method_uses_kernel(m: VortexMethod) -> bool {
     ModeKernel::supported(m)
+}
+
+/// Format tag of partial results.
+pub const PARTIAL_FORMAT: &str = "stackwake-risk-partial-1";
+
+/// One input as the outputs describe it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct InputInfo {
+    pub key: String,
+    pub described: String,
+    pub case_value: f64,
+    /// Whether samples of this key reuse the case's modes.
+    pub keeps_modes: bool,
+}
+
+/// One checked (stage, mode) and the case's own result.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ModeInfo {
+    pub stage: String,
+    pub mode: usize,
+    pub case_frequency_hz: f64,
+    pub case_verdict: String,
+}
+
+/// What a run is about: identical in every shard of one run, so the merge can refuse
+/// partial results of another case or other settings.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RiskHeader {
+    pub format: String,
+    pub case_file: String,
+    pub case_sha256: String,
+    pub title: String,
+    pub samples: u64,
+    pub seed: u64,
+    pub method: String,
+    /// Whether the case gives any criterion (otherwise nothing is judged).
+    pub judged: bool,
+    pub tip_criterion: bool,
+    pub stress_criterion: bool,
+    pub keep_samples: bool,
+    pub inputs: Vec<InputInfo>,
+    pub stages: Vec<String>,
+    pub modes: Vec<ModeInfo>,
+    /// Stage index of each mode entry.
+    pub stage_of: Vec<usize>,
+}
+
+/// A shard's result.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Partial {
+    pub header: RiskHeader,
+    pub shard: u64,
+    pub shards: u64,
+    pub from: u64,
+    pub to: u64,
+    pub accumulator: Accumulator,
 }

@@ -48,7 +48,10 @@ impl ExactSum {
     /// Adds `x` (finite, >= 0; anything else is a programmer error).
     #[inline]
     pub fn add(&mut self, x: f64) {
-        debug_assert!(x.is_finite() && x >= 0.0, "ExactSum takes finite x >= 0, got {x}");
+        debug_assert!(
+            x.is_finite() && x >= 0.0,
+            "ExactSum takes finite x >= 0, got {x}"
+        );
         if x == 0.0 {
             return;
         }
@@ -92,6 +95,11 @@ impl ExactSum {
             *a += b;
         }
         self.normalise();
+    }
+
+    /// Whether a deserialised state has the right shape (limb count, limb range).
+    pub fn is_well_formed(&self) -> bool {
+        self.limbs.len() == LIMBS && self.limbs.iter().all(|&l| l <= 0xffff_ffff)
     }
 
     /// The canonical state (carries propagated).
@@ -275,7 +283,9 @@ mod tests {
     #[test]
     fn sketch_quantiles_are_within_the_stated_accuracy() {
         let inv = inv_ln_gamma();
-        let mut xs: Vec<f64> = (1..=10_001).map(|i| (i as f64 * 0.37).sin().abs() * 5.0 + 0.01).collect();
+        let mut xs: Vec<f64> = (1..=10_001)
+            .map(|i| (i as f64 * 0.37).sin().abs() * 5.0 + 0.01)
+            .collect();
         let mut s = Sketch::default();
         xs.iter().for_each(|&x| s.add(x, inv));
         s.add(0.0, inv);
@@ -285,7 +295,10 @@ mod tests {
             let rank = ((q * xs.len() as f64).ceil() as usize).max(1);
             let exact = xs[rank - 1];
             let got = s.quantile(q).unwrap();
-            assert!((got - exact).abs() <= RELATIVE_ACCURACY * exact * 1.0000001, "{q}: {got} {exact}");
+            assert!(
+                (got - exact).abs() <= RELATIVE_ACCURACY * exact * 1.0000001,
+                "{q}: {got} {exact}"
+            );
         }
         assert_eq!(s.quantile(1e-9), Some(0.0));
         // Merging halves gives the same canonical sketch.

@@ -17,7 +17,7 @@ mod loads;
 mod markup;
 mod method;
 mod modes;
-mod page_style;
+pub(crate) mod page_style;
 mod remedies;
 mod title_block;
 mod verdicts;
