@@ -97,6 +97,10 @@ fn inputs_of(
         .get("shell")
         .and_then(|s| s.as_table())
         .is_some_and(|s| s.contains_key("zone"));
+    let springs = table.get("base").and_then(|b| b.as_table()).is_some_and(|b| {
+        b.contains_key("rotational_stiffness_gnm_per_rad")
+            || b.contains_key("lateral_stiffness_mn_per_m")
+    });
     let mut inputs = Vec::new();
     for (i, e) in entries.iter().enumerate() {
         let path = format!("uncertain[{i}].key");
@@ -125,7 +129,7 @@ fn inputs_of(
                 },
             )?;
         }
-        let role = role_of(&e.key, zones);
+        let role = role_of(&e.key, !zones && !springs);
         let case_value = match role {
             Role::CLatFactor => 1.0,
             _ => match keypath::get_number(table, &e.key) {

@@ -253,7 +253,8 @@ impl ModeKernel {
             }
         };
         out.tip_amplitude_m = y * self.tip_per_antinode;
-        out.max_stress_pa = y * self.stress_per_m;
+        // Inertia loads m (2 pi n)^2 Phi y (E.1.4) scale with n^2, i.e. the stiffness scale.
+        out.max_stress_pa = y * self.stress_per_m * s.stiffness_scale;
         judge(&self.criteria, self.top_diameter_m, &mut out);
         out
     }

@@ -82,11 +82,17 @@ pub struct UncertainInput {
     pub case_value: f64,
 }
 
-/// The role of `key` given the case (E shortcut only when the shell has no zones of its own
-/// modulus, which would not scale with the key).
-pub fn role_of(key: &str, shell_has_zones: bool) -> Role {
-    if key == "shell.elastic_modulus_gpa" && !shell_has_zones {
-        return Role::ElasticModulus;
+/// The role of `key` given the case. E and the stiffness factor keep the modes only when
+/// they scale the whole stiffness matrix: not when the shell has zones of their own modulus
+/// (`scales_whole_stiffness` false), nor with base springs, which do not scale with E (a
+/// fixed base has none): then f(E) is not sqrt(E) f(E_case), and samples re-solve.
+pub fn role_of(key: &str, scales_whole_stiffness: bool) -> Role {
+    if key == "shell.elastic_modulus_gpa" {
+        return if scales_whole_stiffness {
+            Role::ElasticModulus
+        } else {
+            Role::Resolve
+        };
     }
     match key {
         "vortex.strouhal" => return Role::Strouhal,
@@ -97,7 +103,7 @@ pub fn role_of(key: &str, shell_has_zones: bool) -> Role {
     }
     if let Some(rest) = key.strip_prefix("stage[") {
         if let Some((i, tail)) = rest.split_once(']') {
-            if tail == ".stiffness_factor" {
+            if tail == ".stiffness_factor" && scales_whole_stiffness {
                 if let Ok(i) = i.parse() {
                     return Role::StageStiffness(i);
                 }
