@@ -12,8 +12,8 @@
 use std::path::Path;
 
 use stackwake::input::{self, keypath};
-use stackwake::risk::kernel::{self, SampleInputs};
 use stackwake::risk::case_modes;
+use stackwake::risk::kernel::{self, SampleInputs};
 
 /// The demo with a fixed base: base springs do not scale with E, so with them E and the
 /// stiffness factor re-solve (tested in `springs_make_stiffness_keys_re_solve`).
@@ -101,8 +101,18 @@ fn shortcut_samples_equal_the_full_analysis() {
                     );
                 }
                 assert_eq!(
-                    (got.in_range, got.exceeds, got.tip_exceeds, got.stress_exceeds),
-                    (want.in_range, want.exceeds, want.tip_exceeds, want.stress_exceeds),
+                    (
+                        got.in_range,
+                        got.exceeds,
+                        got.tip_exceeds,
+                        got.stress_exceeds
+                    ),
+                    (
+                        want.in_range,
+                        want.exceeds,
+                        want.tip_exceeds,
+                        want.stress_exceeds
+                    ),
                     "{} mode {}",
                     sv.stage,
                     m.mode
@@ -117,11 +127,20 @@ fn shortcut_samples_equal_the_full_analysis() {
 #[test]
 fn springs_make_stiffness_keys_re_solve() {
     use stackwake::risk::{role_of, Role};
-    assert_eq!(role_of("shell.elastic_modulus_gpa", true), Role::ElasticModulus);
+    assert_eq!(
+        role_of("shell.elastic_modulus_gpa", true),
+        Role::ElasticModulus
+    );
     assert_eq!(role_of("shell.elastic_modulus_gpa", false), Role::Resolve);
-    assert_eq!(role_of("stage[2].stiffness_factor", true), Role::StageStiffness(2));
+    assert_eq!(
+        role_of("stage[2].stiffness_factor", true),
+        Role::StageStiffness(2)
+    );
     assert_eq!(role_of("stage[2].stiffness_factor", false), Role::Resolve);
-    assert_eq!(role_of("lining[0].mass_per_area_kg_m2", true), Role::Resolve);
+    assert_eq!(
+        role_of("lining[0].mass_per_area_kg_m2", true),
+        Role::Resolve
+    );
     assert_eq!(role_of("vortex.log_decrement", false), Role::LogDecrement);
     // The reason: with the demo's springs, E x 1.13 does not give f x sqrt(1.13).
     let mut t = input::parse_case_text(input::DEMO_CASE_TOML, "demo").unwrap();

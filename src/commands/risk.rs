@@ -97,10 +97,13 @@ fn inputs_of(
         .get("shell")
         .and_then(|s| s.as_table())
         .is_some_and(|s| s.contains_key("zone"));
-    let springs = table.get("base").and_then(|b| b.as_table()).is_some_and(|b| {
-        b.contains_key("rotational_stiffness_gnm_per_rad")
-            || b.contains_key("lateral_stiffness_mn_per_m")
-    });
+    let springs = table
+        .get("base")
+        .and_then(|b| b.as_table())
+        .is_some_and(|b| {
+            b.contains_key("rotational_stiffness_gnm_per_rad")
+                || b.contains_key("lateral_stiffness_mn_per_m")
+        });
     let mut inputs = Vec::new();
     for (i, e) in entries.iter().enumerate() {
         let path = format!("uncertain[{i}].key");
@@ -389,7 +392,7 @@ fn header(case: &crate::case::Case, engine: &Engine, o: &RiskOptions) -> Result<
             .map(|i| InputInfo {
                 key: i.key.clone(),
                 described: i.described.clone(),
-                case_value: i.case_value,
+                case_value: i.case_value.is_finite().then_some(i.case_value),
                 keeps_modes: i.role.keeps_modes(),
             })
             .collect(),

@@ -671,7 +671,7 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
             "<tr><td>{}</td><td>{}</td><td class=\"n\">{}</td><td>{}</td></tr>",
             escape(&i.key),
             escape(&i.described),
-            num(i.case_value),
+            i.case_value.map_or_else(|| "default".to_string(), num),
             if i.keeps_modes {
                 "reused (scaled)"
             } else {

@@ -494,7 +494,8 @@ pub const PARTIAL_FORMAT: &str = "stackwake-risk-partial-1";
 pub struct InputInfo {
     pub key: String,
     pub described: String,
-    pub case_value: f64,
+    /// The case's own value (`None` when the case leaves the key to its default).
+    pub case_value: Option<f64>,
     /// Whether samples of this key reuse the case's modes.
     pub keeps_modes: bool,
 }
