@@ -304,3 +304,22 @@ mod tests {
         assert!(m[0].contains("uncertain[0].sd"), "{m:?}");
     }
 }
+
+#[cfg(test)]
+mod starter_tests {
+    /// The commented [[uncertain]] examples of the starter template read without a problem.
+    #[test]
+    fn starter_examples_read() {
+        let text = crate::commands::new::STARTER_TOML;
+        let start = text.find("# [[uncertain]]").expect("starter shows [[uncertain]]");
+        let block: String = text[start..]
+            .lines()
+            .map(|l| l.strip_prefix("# ").or_else(|| l.strip_prefix('#')).unwrap_or(l))
+            .map(|l| format!("{l}\n"))
+            .collect();
+        let t: toml::Table = toml::from_str(&block).unwrap();
+        let entries = super::read(&t).unwrap();
+        assert_eq!(entries.len(), 6);
+        assert!(entries.iter().any(|e| e.key == crate::risk::C_LAT_FACTOR_KEY));
+    }
+}
