@@ -36,7 +36,12 @@ fn main() {
     with_e.extend(fast.iter().copied());
     let mut resolve = with_e.clone();
     resolve.push(("lining[0].mass_per_area_kg_m2", Family::Normal, 240.0, 0.10));
-    resolve.push(("base.rotational_stiffness_gnm_per_rad", Family::Lognormal, 1500.0, 0.4));
+    resolve.push((
+        "base.rotational_stiffness_gnm_per_rad",
+        Family::Lognormal,
+        1500.0,
+        0.4,
+    ));
     let rows = [
         Row {
             label: "demo, fixed base: E, damping, St, c_lat",
@@ -99,7 +104,11 @@ fn main() {
             "{:<64} {:>10} {:>10} {:>9.2} {:>12.2} {:>7.0} s",
             row.label,
             row.samples,
-            if engine.shortcut { "shortcut" } else { "re-solve" },
+            if engine.shortcut {
+                "shortcut"
+            } else {
+                "re-solve"
+            },
             s,
             s * 1e6 / row.samples as f64,
             row.target_s

@@ -141,7 +141,9 @@ fn inputs_of(
                 Err(_) => f64::NAN,
             },
         };
-        if matches!(role, Role::ElasticModulus | Role::StageStiffness(_)) && !(case_value > 0.0) {
+        if matches!(role, Role::ElasticModulus | Role::StageStiffness(_))
+            && (case_value.is_nan() || case_value <= 0.0)
+        {
             return Err(invalid(
                 label,
                 vec![input::issue::ValidationIssue::new(

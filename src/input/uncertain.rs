@@ -242,7 +242,7 @@ fn read_entry(i: usize, v: &Value, issues: &mut Vec<ValidationIssue>) -> Option<
     if issues.len() > before {
         return None;
     }
-    let mut described = format!("{}", family.key());
+    let mut described = family.key().to_string();
     match (mean, cov, low, high) {
         (Some(m), Some(c), _, _) => described.push_str(&format!(", mean {m}, cov {c}")),
         (_, _, Some(l), Some(h)) => described.push_str(&format!(", {l} to {h}")),
@@ -311,15 +311,23 @@ mod starter_tests {
     #[test]
     fn starter_examples_read() {
         let text = crate::commands::new::STARTER_TOML;
-        let start = text.find("# [[uncertain]]").expect("starter shows [[uncertain]]");
+        let start = text
+            .find("# [[uncertain]]")
+            .expect("starter shows [[uncertain]]");
         let block: String = text[start..]
             .lines()
-            .map(|l| l.strip_prefix("# ").or_else(|| l.strip_prefix('#')).unwrap_or(l))
+            .map(|l| {
+                l.strip_prefix("# ")
+                    .or_else(|| l.strip_prefix('#'))
+                    .unwrap_or(l)
+            })
             .map(|l| format!("{l}\n"))
             .collect();
         let t: toml::Table = toml::from_str(&block).unwrap();
         let entries = super::read(&t).unwrap();
         assert_eq!(entries.len(), 6);
-        assert!(entries.iter().any(|e| e.key == crate::risk::C_LAT_FACTOR_KEY));
+        assert!(entries
+            .iter()
+            .any(|e| e.key == crate::risk::C_LAT_FACTOR_KEY));
     }
 }
