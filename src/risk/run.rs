@@ -31,34 +31,45 @@ pub fn run_range(
     let n_in = engine.inputs.len();
     let inv = inv_ln_gamma();
     let empty = || Accumulator::new(engine.modes(), engine.stages, n_in);
-    let parts: Vec<(Accumulator, Vec<u8>)> = chunks
-        .par_iter()
-        .map(|&(a, b)| {
-            let mut acc = empty();
-            let mut text = Vec::new();
-            let mut bits = vec![0u64; n_in];
-            let mut values = vec![0f64; n_in];
-            let mut out = vec![ModeSample::default(); engine.modes()];
-            for i in a..b {
-                engine.draw(i, &mut bits, &mut values);
-                let mut message = None;
-                let ok = engine.evaluate(&values, &mut out, &mut message) && out.iter().all(finite);
-                if ok {
-                    acc.add(&out, &stage_of, &bits, inv);
-                } else {
-                    acc.add_invalid(
-                        i,
-                        Some(message.unwrap_or_else(|| "a result is not finite".into())),
-                    );
-                }
-                if let Some(w) = rows {
-                    w(i, &values, ok.then_some(out.as_slice()), &mut text);
-                }
+    let one = |&(a, b): &(u64, u64)| {
+        let mut acc = empty();
+        let mut text = Vec::new();
+        let mut bits = vec![0u64; n_in];
+        let mut values = vec![0f64; n_in];
+        let mut out = vec![ModeSample::default(); engine.modes()];
+        for i in a..b {
+            engine.draw(i, &mut bits, &mut values);
+            let mut message = None;
+            let ok = engine.evaluate(&values, &mut out, &mut message) && out.iter().all(finite);
+            if ok {
+                acc.add(&out, &stage_of, &bits, inv);
+            } else {
+                acc.add_invalid(
+                    i,
+                    Some(message.unwrap_or_else(|| "a result is not finite".into())),
+                );
             }
-            progress(b - a);
-            (acc, text)
-        })
-        .collect();
+            if let Some(w) = rows {
+                w(i, &values, ok.then_some(out.as_slice()), &mut text);
+            }
+        }
+        progress(b - a);
+        (acc, text)
+    };
+    if rows.is_none() {
+        // Memory flat in N: chunk results are merged as they finish (one accumulator per
+        // thread at a time), never collected.
+        let total = chunks
+            .par_iter()
+            .map(|c| one(c).0)
+            .reduce(empty, |mut x, y| {
+                x.merge(&y);
+                x
+            });
+        return (total, Vec::new());
+    }
+    // Kept rows must come out in sample order: collect the chunks in order.
+    let parts: Vec<(Accumulator, Vec<u8>)> = chunks.par_iter().map(one).collect();
     let mut total = empty();
     let mut text = Vec::new();
     for (acc, t) in &parts {
