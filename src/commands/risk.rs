@@ -339,6 +339,13 @@ fn warnings(header: &RiskHeader, acc: &Accumulator) -> Vec<String> {
     if header.inputs.is_empty() {
         w.push("the case has no [[uncertain]] entries: every sample is the case itself".into());
     }
+    if header.method != "en1991-e1" && header.inputs.iter().any(|i| i.key == C_LAT_FACTOR_KEY) {
+        w.push(format!(
+            "{C_LAT_FACTOR_KEY} scales c_lat of EN 1991-1-4 approach 1 only; the governing \
+             method {} does not use c_lat, so this input has no effect",
+            header.method
+        ));
+    }
     if acc.invalid > 0 {
         let (i, m) = acc.first_invalid.clone().unwrap_or_default();
         w.push(format!(
