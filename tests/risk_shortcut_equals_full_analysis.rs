@@ -168,3 +168,41 @@ fn springs_make_stiffness_keys_re_solve() {
         .frequency_hz;
     assert!((f1 / f0 - 1.13f64.sqrt()).abs() > 1e-3);
 }
+
+#[test]
+fn direct_kernels_equal_the_checked_ones() {
+    // The re-solve path builds kernels without the whole check; same results, exactly.
+    let mut t = input::parse_case_text(input::DEMO_CASE_TOML, "demo").unwrap();
+    let group: toml::Table = toml::from_str("count = 3\nspacing_m = 40.0").unwrap();
+    t["vortex"]
+        .as_table_mut()
+        .unwrap()
+        .insert("group".into(), toml::Value::Table(group));
+    let grouped = input::parse_case_table(t, Path::new(""), "demo").expect("group case valid");
+    assert!(grouped.vortex.group.is_some());
+    let cases = vec![
+        input::demo_case(),
+        edited("en1991-e2", &[("vortex.strouhal", 0.2)]),
+        grouped,
+    ];
+    for case in cases {
+        let stages = case_modes(&case).unwrap();
+        let a = kernel::kernels(&case, &stages).unwrap();
+        let b = kernel::kernels_direct(&case, &stages).unwrap();
+        assert_eq!(a.len(), b.len());
+        for (x, y) in a.iter().zip(&b) {
+            for s in [
+                SampleInputs::identity(),
+                SampleInputs {
+                    stiffness_scale: 1.1,
+                    strouhal: Some(0.17),
+                    log_decrement: Some(0.01),
+                    reference_speed_m_s: Some(33.0),
+                    c_lat_factor: 1.3,
+                },
+            ] {
+                assert_eq!(x.evaluate(&s), y.evaluate(&s));
+            }
+        }
+    }
+}

@@ -97,6 +97,63 @@ pub struct ModeKernel {
     slope: Vec<f64>,
 }
 
+/// What a kernel takes from the check of a mode.
+#[derive(Debug, Clone, Copy)]
+struct Basics {
+    diameter_m: f64,
+    reference_height_m: f64,
+    strouhal: f64,
+    scruton: f64,
+    equivalent_mass_kg_m: f64,
+    c_lat_group_factor: f64,
+}
+
+impl Basics {
+    fn of(mv: &ModeVortex) -> Basics {
+        Basics {
+            diameter_m: mv.diameter_m,
+            reference_height_m: mv.reference_height_m,
+            strouhal: mv.strouhal,
+            scruton: mv.scruton,
+            equivalent_mass_kg_m: mv.equivalent_mass_kg_m,
+            c_lat_group_factor: mv.group.as_ref().map_or(1.0, |g| g.c_lat_factor),
+        }
+    }
+
+    /// The same values by the rules of `wind::check_mode` (shedding section at the largest
+    /// antinode, St from the case / group rule / 0.18, Sc from the case's log decrement),
+    /// without running the whole check: for re-solved samples. The tests compare both.
+    fn direct(case: &Case, model: &StageModel, mode: &crate::modal::Mode) -> Basics {
+        let wind = case.wind.expect("kernels() checked [wind]");
+        let shape = ModeShape::from_mode(model, mode);
+        let ia = shape.largest_antinode();
+        let b = model.outer_diameter_m[ia];
+        let group = case
+            .vortex
+            .group
+            .as_ref()
+            .map(|g| wind::group::in_line_rule(g, b));
+        let strouhal = match (case.vortex.strouhal, &group) {
+            (Some(st), _) => st,
+            (None, Some(g)) => g.strouhal,
+            (None, None) => shedding::STROUHAL_CIRCULAR_EN,
+        };
+        let m_e = if mode.equivalent_mass_kg_m.is_finite() && mode.equivalent_mass_kg_m > 0.0 {
+            mode.equivalent_mass_kg_m
+        } else {
+            wind::shape::equivalent_mass_kg_m(model, &shape)
+        };
+        Basics {
+            diameter_m: b,
+            reference_height_m: model.z_m[ia],
+            strouhal,
+            scruton: shedding::scruton(case.vortex.log_decrement, m_e, wind.air_density_kg_m3, b),
+            equivalent_mass_kg_m: m_e,
+            c_lat_group_factor: group.as_ref().map_or(1.0, |g| g.c_lat_factor),
+        }
+    }
+}
+
 /// Builds the kernels of every stage and checked mode (the case's own check of each mode
 /// supplies the shedding section and mass data, so both paths share one definition).
 pub fn kernels(case: &Case, stages: &[StageModes]) -> Result<Vec<ModeKernel>, WindError> {
@@ -105,7 +162,21 @@ pub fn kernels(case: &Case, stages: &[StageModes]) -> Result<Vec<ModeKernel>, Wi
     for (si, (sv, sm)) in results.stages.iter().zip(stages).enumerate() {
         for mv in &sv.modes {
             let mode = &sm.modes[mv.mode - 1];
-            out.push(ModeKernel::new(case, si, &sm.model, mode, mv));
+            out.push(ModeKernel::new(case, si, &sm.model, mode, Basics::of(mv)));
+        }
+    }
+    Ok(out)
+}
+
+/// The same kernels as [`kernels`] without running the whole check (about a sixth of a
+/// re-solved sample's time); the check's rules are restated in `Basics::direct`.
+pub fn kernels_direct(case: &Case, stages: &[StageModes]) -> Result<Vec<ModeKernel>, WindError> {
+    wind::site_wind(case, "risk")?;
+    let mut out = Vec::new();
+    for (si, sm) in stages.iter().enumerate() {
+        for mode in sm.modes.iter().take(case.vortex.modes) {
+            let basics = Basics::direct(case, &sm.model, mode);
+            out.push(ModeKernel::new(case, si, &sm.model, mode, basics));
         }
     }
     Ok(out)
@@ -117,7 +188,7 @@ impl ModeKernel {
         stage_index: usize,
         model: &StageModel,
         mode: &crate::modal::Mode,
-        mv: &ModeVortex,
+        mv: Basics,
     ) -> Self {
         let wind = case.wind.expect("kernels() checked [wind]");
         let shape = ModeShape::from_mode(model, mode);
@@ -138,7 +209,7 @@ impl ModeKernel {
         };
         ModeKernel {
             stage_index,
-            mode: mv.mode,
+            mode: mode.number,
             method: case.vortex.method,
             criteria: case.criteria,
             frequency_hz: mode.frequency_hz,
@@ -154,7 +225,7 @@ impl ModeKernel {
             speed_factor: profile::speed_factor(&wind, mv.reference_height_m),
             tip_per_antinode: (mode.displacement[top] / phi_a).abs(),
             stress_per_m: wind::loads::max_abs_stress_pa(&unit),
-            c_lat_group_factor: mv.group.as_ref().map_or(1.0, |g| g.c_lat_factor),
+            c_lat_group_factor: mv.c_lat_group_factor,
             k,
             plateaus: [plateau(6.0), plateau(12.0)],
             wind,

@@ -236,7 +236,7 @@ impl<'a> Engine<'a> {
             .find(|(i, _)| i.role == Role::CLatFactor)
             .map_or(1.0, |(_, &x)| x);
         if ModeKernel::supported(case.vortex.method) {
-            let ks = kernel::kernels(&case, &stages).map_err(|e| e.to_string())?;
+            let ks = kernel::kernels_direct(&case, &stages).map_err(|e| e.to_string())?;
             if ks.len() != out.len() {
                 return Err(format!(
                     "the sample has {} checked modes, the case {}",
