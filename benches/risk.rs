@@ -17,6 +17,16 @@ use stackwake::risk::distribution::{Distribution, Family};
 use stackwake::risk::run::run_range;
 use stackwake::risk::{role_of, Engine, Role, UncertainInput, C_LAT_FACTOR_KEY};
 
+/// CPU seconds (user + system) of this process so far: on a shared machine the wall time
+/// also counts other processes' turns, CPU / threads is the idle-machine estimate.
+fn cpu_seconds() -> f64 {
+    // SAFETY: getrusage only writes into the struct it is given.
+    let mut u: libc::rusage = unsafe { std::mem::zeroed() };
+    unsafe { libc::getrusage(libc::RUSAGE_SELF, &mut u) };
+    let t = |v: libc::timeval| v.tv_sec as f64 + v.tv_usec as f64 * 1e-6;
+    t(u.ru_utime) + t(u.ru_stime)
+}
+
 struct Row {
     label: &'static str,
     samples: u64,
@@ -66,8 +76,14 @@ fn main() {
         },
     ];
     println!(
-        "{:<64} {:>10} {:>10} {:>9} {:>12} {:>8}",
-        "case and uncertain keys", "samples", "path", "seconds", "us/sample", "target"
+        "{:<64} {:>10} {:>10} {:>9} {:>12} {:>14} {:>8}",
+        "case and uncertain keys",
+        "samples",
+        "path",
+        "seconds",
+        "us/sample",
+        "CPU s/threads",
+        "target"
     );
     for row in rows {
         let mut table = parse_case_text(DEMO_CASE_TOML, "demo").unwrap();
@@ -96,9 +112,11 @@ fn main() {
             parse_case_table(t, Path::new(""), "demo").map_err(|e| e.to_string())
         };
         let engine = Engine::new(&case, &inputs, 1, &full).unwrap();
+        let c0 = cpu_seconds();
         let t = Instant::now();
         let (acc, _) = run_range(&engine, 0, row.samples, None, &|_| {});
         let s = t.elapsed().as_secs_f64();
+        let cpu = (cpu_seconds() - c0) / rayon::current_num_threads() as f64;
         assert_eq!(acc.samples + acc.invalid, row.samples);
         println!(
             "{:<64} {:>10} {:>10} {:>9.2} {:>12.2} {:>7.0} s",
@@ -114,5 +132,8 @@ fn main() {
             row.target_s
         );
     }
-    println!("threads: {}", rayon::current_num_threads());
+    println!(
+        "threads: {}; wall-clock seconds include other processes' turns on a shared machine",
+        rayon::current_num_threads()
+    );
 }
