@@ -119,7 +119,7 @@ fn main() {
         let cpu = (cpu_seconds() - c0) / rayon::current_num_threads() as f64;
         assert_eq!(acc.samples + acc.invalid, row.samples);
         println!(
-            "{:<64} {:>10} {:>10} {:>9.2} {:>12.2} {:>7.0} s",
+            "{:<64} {:>10} {:>10} {:>9.2} {:>12.2} {:>14.2} {:>6.0} s",
             row.label,
             row.samples,
             if engine.shortcut {
@@ -129,6 +129,7 @@ fn main() {
             },
             s,
             s * 1e6 / row.samples as f64,
+            cpu,
             row.target_s
         );
     }
