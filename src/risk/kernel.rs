@@ -123,6 +123,8 @@ impl Basics {
     /// The same values by the rules of `wind::check_mode` (shedding section at the largest
     /// antinode, St from the case / group rule / 0.18, Sc from the case's log decrement),
     /// without running the whole check: for re-solved samples. The tests compare both.
+    /// When stages get a log decrement of their own (`stage[i].log_decrement`), Sc here
+    /// must take the stage's value as `check_mode` will.
     fn direct(case: &Case, model: &StageModel, mode: &crate::modal::Mode) -> Basics {
         let wind = case.wind.expect("kernels() checked [wind]");
         let shape = ModeShape::from_mode(model, mode);

@@ -52,7 +52,8 @@ pub enum Role {
     StageStiffness(usize),
     /// `vortex.strouhal`.
     Strouhal,
-    /// `vortex.log_decrement`.
+    /// `vortex.log_decrement` (every stage: stages have no decrement of their own yet; when
+    /// they do, the shortcut must leave those stages at theirs).
     LogDecrement,
     /// `wind.reference_speed_m_s`.
     ReferenceSpeed,
