@@ -24,6 +24,7 @@ pub mod process;
 pub mod remedy;
 pub mod report;
 pub mod resistance;
+pub mod risk;
 pub mod section;
 pub mod similitude;
 pub mod sweep;

@@ -55,6 +55,38 @@ enum Command {
         #[arg(long, default_value = "stackwake-out")]
         out: PathBuf,
     },
+    /// Probabilistic screening: Monte Carlo over the case's [[uncertain]] inputs; writes
+    /// risk.csv, summary.json, risk.html and its plots (a shard writes risk_partial.json).
+    Risk {
+        /// Case file (TOML) with [[uncertain]] entries.
+        case: PathBuf,
+        /// Number of samples of the whole run (all shards together).
+        #[arg(long)]
+        samples: u64,
+        /// Seed of the sample streams (sample i is the same for every shard count).
+        #[arg(long, default_value_t = 1)]
+        seed: u64,
+        /// Output folder.
+        #[arg(long, default_value = "stackwake-out")]
+        out: PathBuf,
+        /// Also write risk_samples.csv (one row per sample, stage and mode).
+        #[arg(long)]
+        keep_samples: bool,
+        /// Run only the K-th of N deterministic slices and write a partial result
+        /// (combine with `risk-merge`).
+        #[arg(long, value_name = "K/N")]
+        shard: Option<String>,
+    },
+    /// Combine the partial results of `risk --shard K/N` (one folder per shard) into the
+    /// outputs of the unsharded run.
+    RiskMerge {
+        /// Shard output folders (each holding risk_partial.json).
+        #[arg(required = true)]
+        dirs: Vec<PathBuf>,
+        /// Output folder.
+        #[arg(long, default_value = "stackwake-out")]
+        out: PathBuf,
+    },
     /// Natural frequencies and mode shapes of every construction stage.
     Modes {
         /// Case file (TOML); the built-in invented demo when omitted.
@@ -101,7 +133,8 @@ const EXIT_CODES: &str = "Exit codes:
   1  the analysis ran and some check fails (a criterion is exceeded)
   2  error: bad input, unwritable output, solver refusal
   3  the analysis ran but nothing was judged (the case gives no [criteria]; `check` only)
-`sweep` exits 0 when the grid ran (its verdicts are in sweep.csv).";
+`sweep` exits 0 when the grid ran (its verdicts are in sweep.csv); `risk` and `risk-merge`
+exit 0 when the samples ran (the probabilities are in risk.csv).";
 
 /// Largest `--elements` accepted.
 const MAX_ELEMENTS: usize = 20_000;
@@ -138,6 +171,30 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
         }
         Command::New { file, force } => Ok(commands::new::run(&file, force)?),
         Command::Sweep { case, vary, out } => Ok(commands::sweep::run(&case, &vary, &out)?),
+        Command::Risk {
+            case,
+            samples,
+            seed,
+            out,
+            keep_samples,
+            shard,
+        } => {
+            let shard = shard
+                .as_deref()
+                .map(commands::risk::parse_shard)
+                .transpose()?;
+            Ok(commands::risk::run(
+                &case,
+                &commands::risk::RiskOptions {
+                    samples,
+                    seed,
+                    keep_samples,
+                    shard,
+                },
+                &out,
+            )?)
+        }
+        Command::RiskMerge { dirs, out } => Ok(commands::risk::merge(&dirs, &out)?),
         Command::Modes {
             case,
             out,

@@ -6,6 +6,7 @@ pub mod check;
 pub mod modes;
 pub mod new;
 pub mod resistance;
+pub mod risk;
 pub mod scale;
 pub mod sweep;
 

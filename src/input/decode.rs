@@ -75,6 +75,8 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     let reinforcement =
         decode_optional_table(table.remove("reinforcement"), "reinforcement", &mut issues);
     let design = decode_optional_table(table.remove("design"), "design", &mut issues);
+    // [[uncertain]] belongs to `risk` (read by `input::uncertain`); other commands ignore it.
+    table.remove("uncertain");
 
     if !issues.is_empty() {
         return Err(issues);

@@ -16,7 +16,9 @@ pub mod physical;
 pub mod plausibility;
 pub mod raw;
 mod read;
+pub mod risk_partial;
 pub mod stations_csv;
+pub mod uncertain;
 pub mod validate;
 
 use std::fmt;
@@ -40,6 +42,9 @@ pub const DEMO_CASE_TOML: &str = include_str!("../../data/demo.toml");
 /// Why a case file could not be turned into a [`Case`].
 #[derive(Debug, Error)]
 pub enum InputError {
+    /// A partial result of `risk --shard` cannot be used (`risk-merge`).
+    #[error("{path}: not a usable partial result of `stackwake risk --shard`: {reason}")]
+    Partial { path: PathBuf, reason: String },
     /// The file could not be read.
     #[error("cannot read {path}: {source}")]
     Read {

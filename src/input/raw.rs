@@ -59,6 +59,7 @@ pub const CASE_KEYS: &[&str] = &[
     "project",
     "reinforcement",
     "design",
+    "uncertain",
 ];
 
 /// `[reinforcement]`: vertical bars of the shell (resistance issue).

@@ -6,6 +6,8 @@ pub mod csv;
 pub mod finite;
 pub mod json;
 pub mod note;
+pub mod risk;
+pub mod risk_plots;
 pub mod scale_html;
 pub mod scale_plot;
 pub mod staging;

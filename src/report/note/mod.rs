@@ -19,7 +19,7 @@ mod loads;
 mod markup;
 mod method;
 mod modes;
-mod page_style;
+pub(crate) mod page_style;
 mod remedies;
 mod resistance;
 mod title_block;

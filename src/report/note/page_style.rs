@@ -3,7 +3,7 @@
 //! the PDF test prints the note with headless Chromium and reads the footer back).
 //! Text width on A4 with these margins: 210 - 2 x 14 = 182 mm; every table is set to fit it.
 
-pub(super) const CSS: &str = r#"
+pub(crate) const CSS: &str = r#"
 @page { size: A4; margin: 15mm 14mm 17mm 14mm;
   @bottom-left { content: "stackwake vortex-shedding design note"; font-family: "DejaVu Sans",
     "Liberation Sans", Arial, sans-serif; font-size: 7.5pt; color: #333; }

@@ -1,0 +1,504 @@
+//! Outputs of `risk` and `risk-merge`, built only from the run's header and its merged
+//! statistics, so a merge of shards writes byte for byte what the unsharded run writes:
+//! `risk.csv` (contract columns), `summary.json` (a `risk` section), `risk.html` (the note,
+//! with the plots inline), `risk_histograms.svg`, `risk_influence.svg` (tornado of the
+//! influence of each input on the probability of exceeding a criterion), and the rows of
+//! `risk_samples.csv`.
+//!
+//! Numbers are written as the shortest text that reads back to the same f64. Histograms
+//! are drawn from the quantile sketch's bins (each bin counted at its centre).
+//! Units: SI, in every column name. The plots are in `risk_plots`.
+
+use std::fmt::Write as _;
+
+use serde::Serialize;
+
+use super::csv::safe_text;
+use super::note::html_escape as escape;
+use super::ReportError;
+use crate::risk::kernel::ModeSample;
+use crate::risk::stats::RELATIVE_ACCURACY;
+use crate::risk::{Accumulator, Partial, RiskHeader, MODE_EVENTS, QUANTITIES};
+
+pub use super::risk_plots::{histograms_svg, influence_svg};
+
+pub(crate) fn num(v: f64) -> String {
+    if v.is_finite() {
+        format!("{v}")
+    } else {
+        String::new()
+    }
+}
+
+/// One risk.csv row.
+#[derive(Debug, Clone, Serialize)]
+pub struct RiskRow {
+    pub stage: String,
+    pub mode: String,
+    pub quantity: String,
+    pub mean: Option<f64>,
+    pub p05: Option<f64>,
+    pub p50: Option<f64>,
+    pub p95: Option<f64>,
+    pub probability_exceeding: Option<f64>,
+    pub standard_error: Option<f64>,
+    /// Event index behind the probability (for the influence), not written to the CSV.
+    #[serde(skip)]
+    pub event: Option<usize>,
+}
+
+/// Every row, in risk.csv order.
+pub fn rows(h: &RiskHeader, a: &Accumulator) -> Vec<RiskRow> {
+    let mut out = Vec::new();
+    let ne = MODE_EVENTS.len();
+    let nq = QUANTITIES.len();
+    let prob = |e: usize| {
+        let (p, se) = a.probability(e);
+        (p.is_finite().then_some(p), se.is_finite().then_some(se))
+    };
+    for (j, m) in h.modes.iter().enumerate() {
+        for (q, name) in QUANTITIES.iter().enumerate() {
+            let sk = &a.sketches[j * nq + q];
+            let event = match *name {
+                "tip_amplitude_m" if h.tip_criterion => Some(j * ne + 1),
+                "max_stress_pa" if h.stress_criterion => Some(j * ne + 2),
+                _ => None,
+            };
+            let (p, se) = event.map_or((None, None), prob);
+            out.push(RiskRow {
+                stage: m.stage.clone(),
+                mode: m.mode.to_string(),
+                quantity: name.to_string(),
+                mean: (sk.total > 0).then(|| a.mean(j, q)),
+                p05: sk.quantile(0.05),
+                p50: sk.quantile(0.50),
+                p95: sk.quantile(0.95),
+                probability_exceeding: p,
+                standard_error: se,
+                event,
+            });
+        }
+        for (e, name) in MODE_EVENTS.iter().enumerate() {
+            if (e == 0) || (e == 3 && h.judged) {
+                let (p, se) = prob(j * ne + e);
+                out.push(RiskRow {
+                    stage: m.stage.clone(),
+                    mode: m.mode.to_string(),
+                    quantity: name.to_string(),
+                    mean: None,
+                    p05: None,
+                    p50: None,
+                    p95: None,
+                    probability_exceeding: p,
+                    standard_error: se,
+                    event: Some(j * ne + e),
+                });
+            }
+        }
+    }
+    if h.judged {
+        let base = h.modes.len() * ne;
+        for (s, name) in h.stages.iter().enumerate() {
+            let (p, se) = prob(base + s);
+            out.push(RiskRow {
+                stage: name.clone(),
+                mode: String::new(),
+                quantity: "exceeds_any_mode".into(),
+                mean: None,
+                p05: None,
+                p50: None,
+                p95: None,
+                probability_exceeding: p,
+                standard_error: se,
+                event: Some(base + s),
+            });
+        }
+        let (p, se) = prob(base + h.stages.len());
+        out.push(RiskRow {
+            stage: String::new(),
+            mode: String::new(),
+            quantity: "exceeds_any".into(),
+            mean: None,
+            p05: None,
+            p50: None,
+            p95: None,
+            probability_exceeding: p,
+            standard_error: se,
+            event: Some(base + h.stages.len()),
+        });
+    }
+    out
+}
+
+fn fmt_err(file: &str) -> impl Fn(::csv::Error) -> ReportError + '_ {
+    move |e| ReportError::Format {
+        file: file.into(),
+        message: e.to_string(),
+    }
+}
+
+/// risk.csv bytes.
+pub fn risk_csv(h: &RiskHeader, a: &Accumulator) -> Result<Vec<u8>, ReportError> {
+    let mut w = ::csv::Writer::from_writer(Vec::new());
+    let err = fmt_err("risk.csv");
+    w.write_record([
+        "stage",
+        "mode",
+        "quantity",
+        "mean",
+        "p05",
+        "p50",
+        "p95",
+        "probability_exceeding",
+        "standard_error",
+    ])
+    .map_err(&err)?;
+    let o = |v: Option<f64>| v.map(num).unwrap_or_default();
+    for r in rows(h, a) {
+        w.write_record([
+            safe_text(&r.stage),
+            r.mode.clone(),
+            r.quantity.clone(),
+            o(r.mean),
+            o(r.p05),
+            o(r.p50),
+            o(r.p95),
+            o(r.probability_exceeding),
+            o(r.standard_error),
+        ])
+        .map_err(&err)?;
+    }
+    w.into_inner().map_err(|e| ReportError::Format {
+        file: "risk.csv".into(),
+        message: e.to_string(),
+    })
+}
+
+/// Influence of each input on one event, largest |r| first: (key, r).
+pub fn influence_ranking(h: &RiskHeader, a: &Accumulator, event: usize) -> Vec<(String, f64)> {
+    let mut v: Vec<(String, f64)> = h
+        .inputs
+        .iter()
+        .enumerate()
+        .filter_map(|(k, i)| a.influence(event, k).map(|r| (i.key.clone(), r)))
+        .collect();
+    v.sort_by(|x, y| y.1.abs().total_cmp(&x.1.abs()).then(x.0.cmp(&y.0)));
+    v
+}
+
+/// The headline event of each stage for the tornado: "exceeds any mode" when judged, else
+/// mode 1's E.1.2 range.
+pub(crate) fn headline_events(h: &RiskHeader) -> Vec<(String, usize)> {
+    let ne = MODE_EVENTS.len();
+    h.stages
+        .iter()
+        .enumerate()
+        .filter_map(|(s, name)| {
+            if h.judged {
+                Some((format!("{name}: exceeds any mode"), h.modes.len() * ne + s))
+            } else {
+                let j = h.stage_of.iter().position(|&x| x == s)?;
+                Some((
+                    format!("{name}: mode {} in E.1.2 range", h.modes[j].mode),
+                    j * ne,
+                ))
+            }
+        })
+        .collect()
+}
+
+#[derive(Serialize)]
+struct InfluenceJson {
+    key: String,
+    rank_correlation: f64,
+    standard_error: f64,
+}
+
+#[derive(Serialize)]
+struct RowJson {
+    #[serde(flatten)]
+    row: RiskRow,
+    influence: Vec<InfluenceJson>,
+}
+
+#[derive(Serialize)]
+struct RiskJson<'a> {
+    case_file: &'a str,
+    case_sha256: &'a str,
+    title: &'a str,
+    samples: u64,
+    valid_samples: u64,
+    invalid_samples: u64,
+    seed: u64,
+    method: &'a str,
+    inputs: &'a [crate::risk::InputInfo],
+    percentile_relative_accuracy: f64,
+    percentile_method: &'static str,
+    influence_method: &'static str,
+    rows: Vec<RowJson>,
+    cautions: &'static [&'static str],
+}
+
+#[derive(Serialize)]
+struct SummaryJson<'a> {
+    risk: RiskJson<'a>,
+}
+
+/// How percentiles are computed (note and summary.json).
+pub const PERCENTILE_METHOD: &str = "logarithmic-bin quantile sketch (mergeable): a \
+     percentile is within a relative 1e-4 of the sample order statistic of rank ceil(q N)";
+/// How influence is computed (note and summary.json).
+pub const INFLUENCE_METHOD: &str = "rank correlation between each input's population rank \
+     U = F(X) and the event indicator, using the population moments of U (mean 1/2, \
+     variance 1/12); standard error about (1 - r^2) / sqrt(N)";
+
+/// summary.json bytes.
+pub fn summary_json(h: &RiskHeader, a: &Accumulator) -> Result<Vec<u8>, ReportError> {
+    let n = a.samples as f64;
+    let rows = rows(h, a)
+        .into_iter()
+        .map(|r| {
+            let influence = r
+                .event
+                .map(|e| {
+                    influence_ranking(h, a, e)
+                        .into_iter()
+                        .map(|(key, r)| InfluenceJson {
+                            key,
+                            rank_correlation: r,
+                            standard_error: (1.0 - r * r) / n.sqrt(),
+                        })
+                        .collect()
+                })
+                .unwrap_or_default();
+            RowJson { row: r, influence }
+        })
+        .collect();
+    let s = SummaryJson {
+        risk: RiskJson {
+            case_file: &h.case_file,
+            case_sha256: &h.case_sha256,
+            title: &h.title,
+            samples: h.samples,
+            valid_samples: a.samples,
+            invalid_samples: a.invalid,
+            seed: h.seed,
+            method: &h.method,
+            inputs: &h.inputs,
+            percentile_relative_accuracy: RELATIVE_ACCURACY,
+            percentile_method: PERCENTILE_METHOD,
+            influence_method: INFLUENCE_METHOD,
+            rows,
+            cautions: super::CAUTIONS,
+        },
+    };
+    let mut v = serde_json::to_vec_pretty(&s).map_err(|e| ReportError::Format {
+        file: "summary.json".into(),
+        message: e.to_string(),
+    })?;
+    v.push(b'\n');
+    Ok(v)
+}
+
+/// risk_partial.json bytes (compact).
+pub fn partial_json(p: &Partial) -> Result<Vec<u8>, ReportError> {
+    serde_json::to_vec(p).map_err(|e| ReportError::Format {
+        file: "risk_partial.json".into(),
+        message: e.to_string(),
+    })
+}
+
+/// Header line of risk_samples.csv.
+pub fn samples_header(h: &RiskHeader) -> Vec<u8> {
+    let mut w = ::csv::Writer::from_writer(Vec::new());
+    let mut rec: Vec<String> = vec!["sample".into()];
+    rec.extend(h.inputs.iter().map(|i| safe_text(&i.key)));
+    for c in [
+        "stage",
+        "mode",
+        "frequency_hz",
+        "critical_speed_m_s",
+        "scruton",
+        "tip_amplitude_m",
+        "max_stress_pa",
+        "verdict",
+    ] {
+        rec.push(c.into());
+    }
+    let _ = w.write_record(&rec);
+    w.into_inner().unwrap_or_default()
+}
+
+/// Writer of one sample's rows of risk_samples.csv (one row per stage and mode; an invalid
+/// sample is one row with verdict `invalid`).
+pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
+    let names: Vec<(String, String)> = h
+        .modes
+        .iter()
+        .map(|m| (safe_text(&m.stage), m.mode.to_string()))
+        .collect();
+    let judged = h.judged;
+    Box::new(
+        move |i: u64, values: &[f64], res: Option<&[ModeSample]>, out: &mut Vec<u8>| {
+            let mut w = ::csv::WriterBuilder::new().from_writer(Vec::new());
+            let keys: Vec<String> = values.iter().map(|&x| num(x)).collect();
+            match res {
+                None => {
+                    let mut rec = vec![i.to_string()];
+                    rec.extend(keys.iter().cloned());
+                    rec.extend(std::iter::repeat_n(String::new(), 7));
+                    rec.push("invalid".into());
+                    let _ = w.write_record(&rec);
+                }
+                Some(r) => {
+                    for (s, (stage, mode)) in r.iter().zip(&names) {
+                        let verdict = if !judged {
+                            "not judged"
+                        } else if !s.in_range {
+                            "clear"
+                        } else if s.exceeds {
+                            "exceeds"
+                        } else {
+                            "ok"
+                        };
+                        let mut rec = vec![i.to_string()];
+                        rec.extend(keys.iter().cloned());
+                        rec.extend([
+                            stage.clone(),
+                            mode.clone(),
+                            num(s.frequency_hz),
+                            num(s.critical_speed_m_s),
+                            num(s.scruton),
+                            num(s.tip_amplitude_m),
+                            num(s.max_stress_pa),
+                            verdict.into(),
+                        ]);
+                        let _ = w.write_record(&rec);
+                    }
+                }
+            }
+            out.extend_from_slice(&w.into_inner().unwrap_or_default());
+        },
+    )
+}
+
+/// The lines printed after a run.
+pub fn stdout_summary(h: &RiskHeader, a: &Accumulator) -> String {
+    let mut s = format!(
+        "{} valid samples, {} invalid; percentiles within a relative {RELATIVE_ACCURACY:e}\n",
+        a.samples, a.invalid
+    );
+    for r in rows(h, a) {
+        if r.quantity == "exceeds_any_mode" || r.quantity == "exceeds_any" {
+            let _ = writeln!(
+                s,
+                "  P({} {}) = {} +- {} (standard error)",
+                if r.stage.is_empty() {
+                    "case"
+                } else {
+                    r.stage.as_str()
+                },
+                r.quantity.replace('_', " "),
+                r.probability_exceeding.map(num).unwrap_or_default(),
+                r.standard_error
+                    .map(|v| format!("{v:.2e}"))
+                    .unwrap_or_default()
+            );
+        }
+    }
+    s.push_str(
+        "Screening tool: results must be checked by a licensed engineer against the local code and National Annex.\n",
+    );
+    s
+}
+
+/// risk.html: the probabilistic screening note (self-contained; the plots inline).
+pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> String {
+    let mut s =
+        String::from("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
+    let _ = writeln!(
+        s,
+        "<title>Lock-in risk: {}</title>\n<style>{}</style>\n</head>\n<body>",
+        escape(&h.title),
+        super::note::page_style::CSS
+    );
+    let _ = writeln!(s, "<h1>Lock-in risk screening: {}</h1>", escape(&h.title));
+    let _ = writeln!(
+        s,
+        "<p>Case file {} (SHA-256 <code>{}</code>), {} samples, seed {}, governing method {}.</p>",
+        escape(&h.case_file),
+        escape(&h.case_sha256),
+        h.samples,
+        h.seed,
+        escape(&h.method)
+    );
+    s.push_str("<h2>Cautions</h2>\n<ul>\n");
+    for c in super::CAUTIONS {
+        let _ = writeln!(s, "<li>{}</li>", escape(c));
+    }
+    s.push_str(
+        "<li>Probabilities are conditional on the design wind of the case and on the input \
+         distributions below; they are not annual failure probabilities.</li>\n</ul>\n",
+    );
+    s.push_str("<h2>Uncertain inputs</h2>\n<table><thead><tr><th>key</th><th>distribution</th><th>case value</th><th>modes</th></tr></thead><tbody>\n");
+    if h.inputs.is_empty() {
+        s.push_str("<tr><td colspan=\"4\">none: every sample is the case itself</td></tr>\n");
+    }
+    for i in &h.inputs {
+        let _ = writeln!(
+            s,
+            "<tr><td>{}</td><td>{}</td><td class=\"n\">{}</td><td>{}</td></tr>",
+            escape(&i.key),
+            escape(&i.described),
+            i.case_value.map_or_else(|| "default".to_string(), num),
+            if i.keeps_modes {
+                "reused (scaled)"
+            } else {
+                "re-solved per sample"
+            }
+        );
+    }
+    s.push_str("</tbody></table>\n<h2>Method</h2>\n<ul>\n");
+    for line in [
+        "Each sample is checked like <code>check</code>: the same modes (re-solved only when a \
+         sample changes mass, geometry or springs; otherwise the case's modes with frequencies \
+         scaled by the square root of the stiffness factor), the EN 1991-1-4 Annex E chain of \
+         the governing method and the case's criteria.",
+        "Sample i draws from a counter-based stream of (seed, i), so any shard or thread count \
+         gives the same samples; statistics are exact integer counts and sums, merged exactly.",
+        PERCENTILE_METHOD,
+        INFLUENCE_METHOD,
+        "Standard error of a probability p from N samples: sqrt(p (1 - p) / N).",
+        "Tip amplitude and stress are 0 in samples screened out by E.1.2 (v_crit &gt; 1.25 v_m).",
+    ] {
+        let _ = writeln!(s, "<li>{line}</li>");
+    }
+    let _ = writeln!(
+        s,
+        "</ul>\n<p>{} valid samples, {} invalid (left out).</p>",
+        a.samples, a.invalid
+    );
+    s.push_str("<h2>Results per stage and mode</h2>\n<table><thead><tr><th>stage</th><th>mode</th><th>quantity</th><th>mean</th><th>p05</th><th>p50</th><th>p95</th><th>P(exceeding)</th><th>standard error</th></tr></thead><tbody>\n");
+    let o = |v: Option<f64>| v.map(|x| format!("{x:.5}")).unwrap_or_default();
+    for r in rows(h, a) {
+        let _ = writeln!(
+            s,
+            "<tr><td>{}</td><td>{}</td><td>{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td></tr>",
+            escape(&r.stage),
+            escape(&r.mode),
+            escape(&r.quantity),
+            o(r.mean),
+            o(r.p05),
+            o(r.p50),
+            o(r.p95),
+            o(r.probability_exceeding),
+            r.standard_error.map(|x| format!("{x:.2e}")).unwrap_or_default()
+        );
+    }
+    s.push_str("</tbody></table>\n<h2>Distributions</h2>\n");
+    s.push_str(hist);
+    s.push_str("<h2>What drives the probability</h2>\n");
+    s.push_str(tornado);
+    s.push_str("</body>\n</html>\n");
+    s
+}

@@ -1,0 +1,545 @@
+//! Probabilistic screening (`stackwake risk`): Monte Carlo over the `[[uncertain]]` inputs
+//! of a case, every sample checked like `check` (same modes, same EN 1991-1-4 Annex E
+//! chain, same criteria), reduced to streamed, mergeable statistics.
+//!
+//! - Sample i draws uniform number j from a counter-based stream of (seed, i, j) ([`rng`]),
+//!   so a sample is the same whichever shard or thread computes it.
+//! - Samples that change only E, a stage's stiffness factor, the structural damping, the
+//!   Strouhal number, c_lat or the reference wind speed reuse the case's modes
+//!   ([`kernel`]: frequencies scale as sqrt of the stiffness factor, shapes unchanged);
+//!   samples that change anything else (masses, geometry, springs, other keys) are written
+//!   into the case file's table, validated and re-solved by the caller's `full` function.
+//! - Statistics ([`stats`]) are exact integers, so any split of the samples gives
+//!   bit-identical merged numbers.
+//! - Influence ([`Accumulator::influence`]): the correlation between each input's
+//!   probability-integral transform U = F(X) (its population rank, uniform on (0,1)) and
+//!   the event indicator; a rank (Spearman-type) correlation with the population ranks,
+//!   mergeable because it needs only the exact sum of U over the samples with the event.
+//!   Its standard error is about (1 - r^2) / sqrt(N) (Fisher's large-sample result for a
+//!   correlation coefficient; common practice).
+//!
+//! Pure: no file access (the caller supplies the full re-analysis).
+//! Units: sampled values in the case file's units (the key names them); results SI.
+
+pub mod distribution;
+pub mod kernel;
+pub mod rng;
+pub mod run;
+pub mod stats;
+
+use serde::{Deserialize, Serialize};
+
+use crate::case::{Case, VortexMethod};
+use crate::modal::{analyse_case, ModalOptions, StageModes};
+use distribution::Distribution;
+use kernel::{ModeKernel, ModeSample, SampleInputs};
+use stats::{ExactSum, Sketch};
+
+/// The risk-only key: a multiplier on c_lat (EN 1991-1-4 E.1.5.2), the model uncertainty
+/// of the lateral force coefficient. Not a case-file key: it is valid only in
+/// `[[uncertain]]`, and its case value is 1.
+pub const C_LAT_FACTOR_KEY: &str = "uncertainty.c_lat_factor";
+
+/// Largest number of samples of one run.
+pub const MAX_SAMPLES: u64 = 1_000_000_000_000;
+
+/// How a key's sampled value reaches the analysis.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum Role {
+    /// `shell.elastic_modulus_gpa`: omega^2 of every stage scales with E.
+    ElasticModulus,
+    /// `stage[i].stiffness_factor`: omega^2 of stage i scales with it.
+    StageStiffness(usize),
+    /// `vortex.strouhal`.
+    Strouhal,
+    /// `vortex.log_decrement`: every stage that does not give its own `log_decrement` (a
+    /// stage's own value stays, as in the case file).
+    LogDecrement,
+    /// `wind.reference_speed_m_s`.
+    ReferenceSpeed,
+    /// [`C_LAT_FACTOR_KEY`].
+    CLatFactor,
+    /// Anything else: the case is edited and re-solved.
+    Resolve,
+}
+
+impl Role {
+    /// Whether samples of this key keep the case's modes.
+    pub fn keeps_modes(self) -> bool {
+        self != Role::Resolve
+    }
+}
+
+/// One `[[uncertain]]` input, validated.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct UncertainInput {
+    pub key: String,
+    pub role: Role,
+    pub distribution: Distribution,
+    /// What the user wrote, for the note: family, mean, cov, low, high, truncation.
+    pub described: String,
+    /// The case's own value of the key (1 for the stiffness factor when absent, 1 for
+    /// [`C_LAT_FACTOR_KEY`]).
+    pub case_value: f64,
+}
+
+/// The role of `key` given the case. E and the stiffness factor keep the modes only when
+/// they scale the whole stiffness matrix: not when the shell has zones of their own modulus
+/// (`scales_whole_stiffness` false), nor with base springs, which do not scale with E (a
+/// fixed base has none): then f(E) is not sqrt(E) f(E_case), and samples re-solve.
+pub fn role_of(key: &str, scales_whole_stiffness: bool) -> Role {
+    if key == "shell.elastic_modulus_gpa" {
+        return if scales_whole_stiffness {
+            Role::ElasticModulus
+        } else {
+            Role::Resolve
+        };
+    }
+    match key {
+        "vortex.strouhal" => return Role::Strouhal,
+        "vortex.log_decrement" => return Role::LogDecrement,
+        "wind.reference_speed_m_s" => return Role::ReferenceSpeed,
+        C_LAT_FACTOR_KEY => return Role::CLatFactor,
+        _ => {}
+    }
+    if let Some(rest) = key.strip_prefix("stage[") {
+        if let Some((i, tail)) = rest.split_once(']') {
+            if tail == ".stiffness_factor" && scales_whole_stiffness {
+                if let Ok(i) = i.parse() {
+                    return Role::StageStiffness(i);
+                }
+            }
+        }
+    }
+    Role::Resolve
+}
+
+/// Everything fixed for a run.
+pub struct Engine<'a> {
+    pub case: &'a Case,
+    pub inputs: &'a [UncertainInput],
+    pub seed: u64,
+    /// Kernels of the case's own modes (every stage, checked modes, in order).
+    pub kernels: Vec<ModeKernel>,
+    /// Number of stages.
+    pub stages: usize,
+    /// Whether every key keeps the modes and the kernel covers the governing method.
+    pub shortcut: bool,
+    /// The full analysis of a sample: the sampled values of every input (risk-only keys
+    /// included, the function ignores them) -> validated case, or the message why not.
+    pub full: &'a (dyn Fn(&[f64]) -> Result<Case, String> + Sync),
+}
+
+/// Why a run cannot start.
+#[derive(Debug, thiserror::Error)]
+pub enum RiskError {
+    #[error(transparent)]
+    Modal(#[from] crate::modal::ModalError),
+    #[error(transparent)]
+    Wind(#[from] crate::wind::WindError),
+}
+
+/// The case's modes as `check` computes them.
+pub fn case_modes(case: &Case) -> Result<Vec<StageModes>, crate::modal::ModalError> {
+    analyse_case(
+        case,
+        ModalOptions {
+            modes: case.vortex.modes,
+            min_elements: None,
+        },
+    )
+}
+
+impl<'a> Engine<'a> {
+    /// Prepares a run: the case's modes and kernels.
+    pub fn new(
+        case: &'a Case,
+        inputs: &'a [UncertainInput],
+        seed: u64,
+        full: &'a (dyn Fn(&[f64]) -> Result<Case, String> + Sync),
+    ) -> Result<Engine<'a>, RiskError> {
+        let stages = case_modes(case)?;
+        let kernels = kernel::kernels(case, &stages)?;
+        let shortcut = ModeKernel::supported(case.vortex.method)
+            && inputs.iter().all(|i| i.role.keeps_modes());
+        Ok(Engine {
+            case,
+            inputs,
+            seed,
+            kernels,
+            stages: case.stages.len(),
+            shortcut,
+            full,
+        })
+    }
+
+    /// Number of (stage, mode) pairs.
+    pub fn modes(&self) -> usize {
+        self.kernels.len()
+    }
+
+    /// The uniforms' integer bits and sampled values of sample `index`.
+    pub fn draw(&self, index: u64, bits: &mut [u64], values: &mut [f64]) {
+        for (j, inp) in self.inputs.iter().enumerate() {
+            bits[j] = rng::draw_bits(self.seed, index, j as u64);
+            values[j] = inp.distribution.sample(rng::bits_to_uniform(bits[j]));
+        }
+    }
+
+    /// Evaluates sample `index` into `out` (one entry per kernel). Returns false when the
+    /// sample is invalid (a case-file rule or the solver refused it).
+    pub fn evaluate(
+        &self,
+        values: &[f64],
+        out: &mut [ModeSample],
+        message: &mut Option<String>,
+    ) -> bool {
+        if self.shortcut {
+            let mut per_stage = [1.0f64; 64];
+            let mut e_scale = 1.0;
+            let mut s = SampleInputs::identity();
+            for (inp, &x) in self.inputs.iter().zip(values) {
+                match inp.role {
+                    Role::ElasticModulus => e_scale = x / inp.case_value,
+                    Role::StageStiffness(i) if i < 64 => {
+                        per_stage[i] = x / inp.case_value;
+                    }
+                    Role::Strouhal => s.strouhal = Some(x),
+                    Role::LogDecrement => s.log_decrement = Some(x),
+                    Role::ReferenceSpeed => s.reference_speed_m_s = Some(x),
+                    Role::CLatFactor => s.c_lat_factor = x,
+                    _ => {}
+                }
+            }
+            for (k, o) in self.kernels.iter().zip(out.iter_mut()) {
+                let mut sk = s;
+                sk.stiffness_scale = e_scale * per_stage.get(k.stage_index).copied().unwrap_or(1.0);
+                *o = k.evaluate(&sk);
+            }
+            return true;
+        }
+        match self.evaluate_full(values, out) {
+            Ok(()) => true,
+            Err(m) => {
+                *message = Some(m);
+                false
+            }
+        }
+    }
+
+    fn evaluate_full(&self, values: &[f64], out: &mut [ModeSample]) -> Result<(), String> {
+        let case = (self.full)(values)?;
+        let stages = case_modes(&case).map_err(|e| e.to_string())?;
+        let c_lat = self
+            .inputs
+            .iter()
+            .zip(values)
+            .find(|(i, _)| i.role == Role::CLatFactor)
+            .map_or(1.0, |(_, &x)| x);
+        if ModeKernel::supported(case.vortex.method) {
+            let ks = kernel::kernels_direct(&case, &stages).map_err(|e| e.to_string())?;
+            if ks.len() != out.len() {
+                return Err(format!(
+                    "the sample has {} checked modes, the case {}",
+                    ks.len(),
+                    out.len()
+                ));
+            }
+            let mut s = SampleInputs::identity();
+            s.c_lat_factor = c_lat;
+            for (k, o) in ks.iter().zip(out.iter_mut()) {
+                *o = k.evaluate(&s);
+            }
+        } else {
+            let r = crate::wind::check_all(&case, &stages).map_err(|e| e.to_string())?;
+            let mut j = 0;
+            for (sv, sm) in r.stages.iter().zip(&stages) {
+                let top = sm.model.outer_diameter_m[sm.model.outer_diameter_m.len() - 1];
+                for m in &sv.modes {
+                    if j >= out.len() {
+                        return Err("the sample has more checked modes than the case".into());
+                    }
+                    out[j] = kernel::from_check(m, &case.criteria, top);
+                    j += 1;
+                }
+            }
+            if j != out.len() {
+                return Err("the sample has fewer checked modes than the case".into());
+            }
+        }
+        Ok(())
+    }
+}
+
+/// Per-(stage, mode) quantities, in risk.csv order. More (utilisation, fatigue damage)
+/// are added here when the resistance part provides them.
+pub const QUANTITIES: [&str; 5] = [
+    "frequency_hz",
+    "critical_speed_m_s",
+    "scruton",
+    "tip_amplitude_m",
+    "max_stress_pa",
+];
+
+fn quantity_values(s: &ModeSample) -> [f64; 5] {
+    [
+        s.frequency_hz,
+        s.critical_speed_m_s,
+        s.scruton,
+        s.tip_amplitude_m,
+        s.max_stress_pa,
+    ]
+}
+
+/// Events per (stage, mode), in order.
+pub const MODE_EVENTS: [&str; 4] = ["in_e12_range", "tip_exceeds", "stress_exceeds", "exceeds"];
+
+fn mode_events(s: &ModeSample) -> [bool; 4] {
+    [s.in_range, s.tip_exceeds, s.stress_exceeds, s.exceeds]
+}
+
+/// Streamed statistics of a range of samples (mergeable; see [`stats`]).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Accumulator {
+    /// Valid samples.
+    pub samples: u64,
+    /// Samples refused by a case-file rule or the solver.
+    pub invalid: u64,
+    /// The first refusal message met (lowest sample index), with its index.
+    pub first_invalid: Option<(u64, String)>,
+    /// Per (stage, mode) x quantity: exact sum and sketch.
+    pub sums: Vec<ExactSum>,
+    pub sketches: Vec<Sketch>,
+    /// Event counts: per (stage, mode) x [`MODE_EVENTS`], then per stage "exceeds", then the
+    /// case "exceeds".
+    pub events: Vec<u64>,
+    /// Per event x input: exact sum of the 53-bit integers behind U over the samples with
+    /// the event, as (high, low) u64 halves of a u128.
+    pub influence: Vec<(u64, u64)>,
+}
+
+impl Accumulator {
+    pub fn new(modes: usize, stages: usize, inputs: usize) -> Self {
+        let events = modes * MODE_EVENTS.len() + stages + 1;
+        Accumulator {
+            samples: 0,
+            invalid: 0,
+            first_invalid: None,
+            sums: vec![ExactSum::default(); modes * QUANTITIES.len()],
+            sketches: vec![Sketch::default(); modes * QUANTITIES.len()],
+            events: vec![0; events],
+            influence: vec![(0, 0); events * inputs],
+        }
+    }
+
+    fn inputs(&self) -> usize {
+        self.influence
+            .len()
+            .checked_div(self.events.len())
+            .unwrap_or(0)
+    }
+
+    fn bump_influence(&mut self, event: usize, bits: &[u64]) {
+        let n = bits.len();
+        for (k, &b) in bits.iter().enumerate() {
+            let slot = &mut self.influence[event * n + k];
+            let v = (((slot.0 as u128) << 64) | slot.1 as u128) + b as u128;
+            *slot = ((v >> 64) as u64, v as u64);
+        }
+    }
+
+    /// Adds one valid sample.
+    pub fn add(&mut self, samples: &[ModeSample], stage_of: &[usize], bits: &[u64], inv_ln_g: f64) {
+        self.samples += 1;
+        let nq = QUANTITIES.len();
+        let ne = MODE_EVENTS.len();
+        let modes = samples.len();
+        let mut stage_hit = [false; 64];
+        let mut any = false;
+        for (j, s) in samples.iter().enumerate() {
+            for (q, v) in quantity_values(s).into_iter().enumerate() {
+                self.sums[j * nq + q].add(v);
+                self.sketches[j * nq + q].add(v, inv_ln_g);
+            }
+            for (e, hit) in mode_events(s).into_iter().enumerate() {
+                if hit {
+                    self.events[j * ne + e] += 1;
+                    self.bump_influence(j * ne + e, bits);
+                }
+            }
+            if s.exceeds {
+                if let Some(h) = stage_hit.get_mut(stage_of[j]) {
+                    *h = true;
+                }
+                any = true;
+            }
+        }
+        let stages = self.events.len() - modes * ne - 1;
+        for st in 0..stages.min(64) {
+            if stage_hit[st] {
+                self.events[modes * ne + st] += 1;
+                self.bump_influence(modes * ne + st, bits);
+            }
+        }
+        if any {
+            let last = self.events.len() - 1;
+            self.events[last] += 1;
+            self.bump_influence(last, bits);
+        }
+    }
+
+    /// Records an invalid sample.
+    pub fn add_invalid(&mut self, index: u64, message: Option<String>) {
+        self.invalid += 1;
+        let replace = self.first_invalid.as_ref().is_none_or(|(i, _)| index < *i);
+        if replace {
+            self.first_invalid = Some((index, message.unwrap_or_default()));
+        }
+    }
+
+    /// Adds another accumulator (exact; order does not matter).
+    pub fn merge(&mut self, o: &Accumulator) {
+        self.samples += o.samples;
+        self.invalid += o.invalid;
+        if let Some((i, m)) = &o.first_invalid {
+            self.add_invalid_keep(*i, m);
+        }
+        for (a, b) in self.sums.iter_mut().zip(&o.sums) {
+            a.merge(b);
+        }
+        for (a, b) in self.sketches.iter_mut().zip(&o.sketches) {
+            a.merge(b);
+        }
+        for (a, b) in self.events.iter_mut().zip(&o.events) {
+            *a += b;
+        }
+        for (a, b) in self.influence.iter_mut().zip(&o.influence) {
+            let v = (((a.0 as u128) << 64) | a.1 as u128) + (((b.0 as u128) << 64) | b.1 as u128);
+            *a = ((v >> 64) as u64, v as u64);
+        }
+    }
+
+    fn add_invalid_keep(&mut self, index: u64, message: &str) {
+        let replace = self.first_invalid.as_ref().is_none_or(|(i, _)| index < *i);
+        if replace {
+            self.first_invalid = Some((index, message.to_string()));
+        }
+    }
+
+    /// The canonical form (sketches trimmed, sums normalised), for serialising.
+    pub fn canonical(&self) -> Accumulator {
+        Accumulator {
+            sums: self.sums.iter().map(ExactSum::canonical).collect(),
+            sketches: self.sketches.iter().map(Sketch::canonical).collect(),
+            ..self.clone()
+        }
+    }
+
+    /// Probability of event `e` over the valid samples and its Monte Carlo standard error
+    /// sqrt(p (1 - p) / N) (binomial; common practice).
+    pub fn probability(&self, e: usize) -> (f64, f64) {
+        if self.samples == 0 {
+            return (f64::NAN, f64::NAN);
+        }
+        let n = self.samples as f64;
+        let p = self.events[e] as f64 / n;
+        (p, (p * (1.0 - p) / n).sqrt())
+    }
+
+    /// Influence of input `k` on event `e`: corr(U_k, 1_event) with the population moments
+    /// of U (mean 1/2, variance 1/12); `None` when the event has probability 0 or 1.
+    pub fn influence(&self, e: usize, k: usize) -> Option<f64> {
+        let n = self.samples as f64;
+        let (p, _) = self.probability(e);
+        if !(p > 0.0 && p < 1.0) {
+            return None;
+        }
+        let (hi, lo) = self.influence[e * self.inputs() + k];
+        let sum_bits = ((hi as u128) << 64) | lo as u128;
+        // Sum of U = (sum of bits + hits / 2) 2^-53.
+        let hits = self.events[e] as f64;
+        let sum_u = (sum_bits as f64 + 0.5 * hits) / 9_007_199_254_740_992.0;
+        let e_ui = sum_u / n;
+        Some((e_ui - 0.5 * p) / ((1.0f64 / 12.0).sqrt() * (p * (1.0 - p)).sqrt()))
+    }
+
+    /// Mean of quantity `q` of mode `j`.
+    pub fn mean(&self, j: usize, q: usize) -> f64 {
+        let i = j * QUANTITIES.len() + q;
+        self.sums[i].value() / self.sketches[i].total as f64
+    }
+}
+
+/// Samples [from, to) of `n` split into `shards`: shard `k` (1-based) gets
+/// [floor((k-1) n / shards), floor(k n / shards)).
+pub fn shard_range(n: u64, k: u64, shards: u64) -> (u64, u64) {
+    let f = |k: u64| ((k as u128 * n as u128) / shards as u128) as u64;
+    (f(k - 1), f(k))
+}
+
+/// Index of the case-wide "exceeds" event.
+pub fn case_event(modes: usize, stages: usize) -> usize {
+    modes * MODE_EVENTS.len() + stages
+}
+
+/// Whether the vortex method's results can be reached by the kernel.
+pub fn method_uses_kernel(m: VortexMethod) -> bool {
+    ModeKernel::supported(m)
+}
+
+/// Format tag of partial results.
+pub const PARTIAL_FORMAT: &str = "stackwake-risk-partial-1";
+
+/// One input as the outputs describe it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct InputInfo {
+    pub key: String,
+    pub described: String,
+    /// The case's own value (`None` when the case leaves the key to its default).
+    pub case_value: Option<f64>,
+    /// Whether samples of this key reuse the case's modes.
+    pub keeps_modes: bool,
+}
+
+/// One checked (stage, mode) and the case's own result.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ModeInfo {
+    pub stage: String,
+    pub mode: usize,
+    pub case_frequency_hz: f64,
+    pub case_verdict: String,
+}
+
+/// What a run is about: identical in every shard of one run, so the merge can refuse
+/// partial results of another case or other settings.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RiskHeader {
+    pub format: String,
+    pub case_file: String,
+    pub case_sha256: String,
+    pub title: String,
+    pub samples: u64,
+    pub seed: u64,
+    pub method: String,
+    /// Whether the case gives any criterion (otherwise nothing is judged).
+    pub judged: bool,
+    pub tip_criterion: bool,
+    pub stress_criterion: bool,
+    pub keep_samples: bool,
+    pub inputs: Vec<InputInfo>,
+    pub stages: Vec<String>,
+    pub modes: Vec<ModeInfo>,
+    /// Stage index of each mode entry.
+    pub stage_of: Vec<usize>,
+}
+
+/// A shard's result.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Partial {
+    pub header: RiskHeader,
+    pub shard: u64,
+    pub shards: u64,
+    pub from: u64,
+    pub to: u64,
+    pub accumulator: Accumulator,
+}

@@ -1,0 +1,232 @@
+//! `risk` and `risk-merge` through the binary: 1, 3 and 8 shards, each run as its own
+//! process and merged, give byte-identical files to the unsharded run (fast keys, and a
+//! re-solved key with --keep-samples); hostile inputs exit 2 with a message naming the
+//! problem. No outside reference is involved: the checks are of the project's own contract
+//! (design.md: sharding and merge, exit codes).
+
+use std::path::{Path, PathBuf};
+
+use assert_cmd::Command;
+use predicates::prelude::*;
+
+const FAST: &str = r#"
+[[uncertain]]
+key = "vortex.log_decrement"
+distribution = "lognormal"
+mean = 0.03
+cov = 0.3
+
+[[uncertain]]
+key = "vortex.strouhal"
+distribution = "normal"
+mean = 0.18
+cov = 0.05
+truncate_low = 0.12
+
+[[uncertain]]
+key = "uncertainty.c_lat_factor"
+distribution = "lognormal"
+mean = 1.0
+cov = 0.2
+
+[[uncertain]]
+key = "wind.reference_speed_m_s"
+distribution = "gumbel"
+mean = 24.0
+cov = 0.12
+truncate_high = 60.0
+"#;
+
+const RESOLVE: &str = r#"
+[[uncertain]]
+key = "lining[0].mass_per_area_kg_m2"
+distribution = "normal"
+mean = 240.0
+cov = 0.1
+
+[[uncertain]]
+key = "base.rotational_stiffness_gnm_per_rad"
+distribution = "lognormal"
+mean = 1500.0
+cov = 0.3
+
+[[uncertain]]
+key = "vortex.log_decrement"
+distribution = "uniform"
+low = 0.02
+high = 0.04
+"#;
+
+fn case_with(dir: &Path, name: &str, extra: &str) -> PathBuf {
+    let p = dir.join(name);
+    std::fs::write(&p, format!("{}\n{extra}", stackwake::input::DEMO_CASE_TOML)).unwrap();
+    p
+}
+
+fn risk(case: &Path, args: &[&str], out: &Path) -> assert_cmd::assert::Assert {
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("risk")
+        .arg(case)
+        .args(args)
+        .arg("--out")
+        .arg(out)
+        .assert()
+}
+
+fn files(dir: &Path) -> Vec<(String, Vec<u8>)> {
+    let mut v: Vec<(String, Vec<u8>)> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap())
+        .filter(|e| !e.file_name().to_string_lossy().starts_with('.'))
+        .map(|e| {
+            (
+                e.file_name().to_string_lossy().into_owned(),
+                std::fs::read(e.path()).unwrap(),
+            )
+        })
+        .collect();
+    v.sort();
+    v
+}
+
+fn shards_merge_to_the_single_run(extra: &str, samples: &str, keep: bool) {
+    let dir = tempfile::tempdir().unwrap();
+    let case = case_with(dir.path(), "case.toml", extra);
+    let mut common = vec!["--samples", samples, "--seed", "42"];
+    if keep {
+        common.push("--keep-samples");
+    }
+    let single = dir.path().join("single");
+    risk(&case, &common, &single).success();
+    let want = files(&single);
+    assert!(want.iter().any(|(n, _)| n == "risk.csv"));
+    assert_eq!(want.iter().any(|(n, _)| n == "risk_samples.csv"), keep);
+    for n in [1u32, 3, 8] {
+        let mut dirs = Vec::new();
+        for k in 1..=n {
+            let d = dir.path().join(format!("s{n}_{k}"));
+            let shard = format!("{k}/{n}");
+            let mut a = common.clone();
+            a.extend(["--shard", shard.as_str()]);
+            risk(&case, &a, &d).success();
+            assert!(d.join("risk_partial.json").exists());
+            dirs.push(d);
+        }
+        // Merge in a scrambled order: the result must not depend on it.
+        dirs.reverse();
+        let merged = dir.path().join(format!("merged{n}"));
+        Command::cargo_bin("stackwake")
+            .unwrap()
+            .arg("risk-merge")
+            .args(&dirs)
+            .arg("--out")
+            .arg(&merged)
+            .assert()
+            .success();
+        let got = files(&merged);
+        assert_eq!(got.len(), want.len(), "{n} shards");
+        for ((gn, gb), (wn, wb)) in got.iter().zip(&want) {
+            assert_eq!(gn, wn);
+            if gn == ".stackwake-manifest" {
+                continue;
+            }
+            assert!(gb == wb, "{n} shards: {gn} differs from the single run");
+        }
+    }
+}
+
+#[test]
+fn shards_of_fast_samples_merge_to_the_single_run() {
+    shards_merge_to_the_single_run(FAST, "20000", false);
+}
+
+#[test]
+fn shards_of_re_solved_samples_merge_to_the_single_run_with_samples() {
+    shards_merge_to_the_single_run(RESOLVE, "48", true);
+}
+
+#[test]
+fn hostile_inputs_exit_2_with_clear_messages() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("out");
+    let bad = |name: &str, extra: &str, args: &[&str], needle: &str| {
+        let case = case_with(dir.path(), name, extra);
+        risk(&case, args, &out)
+            .code(2)
+            .stderr(predicate::str::contains(needle));
+        assert!(!out.exists(), "{name}: nothing written");
+    };
+    let entry = |key: &str, rest: &str| {
+        format!("[[uncertain]]\nkey = \"{key}\"\ndistribution = \"lognormal\"\n{rest}\n")
+    };
+    bad(
+        "unknown.toml",
+        &entry("shell.elastic_modulus_gpx", "mean = 32.0\ncov = 0.1"),
+        &["--samples", "10"],
+        "uncertain[0].key",
+    );
+    bad(
+        "cov.toml",
+        &entry("shell.elastic_modulus_gpa", "mean = 32.0\ncov = 0.0"),
+        &["--samples", "10"],
+        "uncertain[0].cov = 0: must be > 0",
+    );
+    bad(
+        "trunc.toml",
+        &entry(
+            "vortex.log_decrement",
+            "mean = 0.03\ncov = 0.1\ntruncate_low = 0.5\ntruncate_high = 0.6",
+        ),
+        &["--samples", "10"],
+        "nothing to sample",
+    );
+    bad(
+        "normal.toml",
+        "[[uncertain]]\nkey = \"vortex.log_decrement\"\ndistribution = \"normal\"\nmean = 0.03\ncov = 0.5\n",
+        &["--samples", "10"],
+        "truncate it",
+    );
+    bad("zero.toml", FAST, &["--samples", "0"], "--samples = 0");
+    bad(
+        "shard.toml",
+        FAST,
+        &["--samples", "10", "--shard", "9/8"],
+        "--shard = 9/8",
+    );
+    bad(
+        "shard0.toml",
+        FAST,
+        &["--samples", "10", "--shard", "0/8"],
+        "between 1 and N",
+    );
+
+    // Shards of two different cases are refused by the merge.
+    let a = case_with(dir.path(), "a.toml", FAST);
+    let b = case_with(dir.path(), "b.toml", &format!("{FAST}\n# another case\n"));
+    let (da, db) = (dir.path().join("da"), dir.path().join("db"));
+    risk(&a, &["--samples", "100", "--shard", "1/2"], &da).success();
+    risk(&b, &["--samples", "100", "--shard", "2/2"], &db).success();
+    let merged = dir.path().join("m");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("risk-merge")
+        .arg(&da)
+        .arg(&db)
+        .arg("--out")
+        .arg(&merged)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("partial result of another case"));
+    assert!(!merged.exists());
+    // A missing shard is refused too.
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("risk-merge")
+        .arg(&da)
+        .arg("--out")
+        .arg(&merged)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("1 of 2 shards given"));
+}
