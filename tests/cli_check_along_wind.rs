@@ -85,3 +85,26 @@ fn without_terrain_category_no_along_wind_file() {
     assert!(!out.join("along_wind.csv").exists());
     assert!(!out.join("along_moments.svg").exists());
 }
+
+/// The note says which wind speed drives which check when the case gives both ways
+/// (along-wind issue: "the note says which speed each check used").
+#[test]
+fn the_note_says_which_wind_drives_which_check() {
+    let (dir, case) = demo_with("terrain_category = \"III\"\nbasic_speed_m_s = 27.0\n");
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(&case)
+        .arg("--out")
+        .arg(&out)
+        .assert()
+        .code(1);
+    let html = std::fs::read_to_string(out.join("report.html")).unwrap();
+    assert!(
+        html.contains("Which wind drives which check"),
+        "no speed statement"
+    );
+    assert!(html.contains("<code>wind.reference_speed_m_s</code> = 26 m/s at 10 m"));
+    assert!(html.contains("terrain category III from v<sub>b,0</sub> = 27 m/s"));
+}

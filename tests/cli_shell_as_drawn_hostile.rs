@@ -117,6 +117,13 @@ fn hostile_shell_as_drawn_inputs_name_key_value_and_rule() {
              overlap",
         ),
         (
+            "a stage top inside an opening",
+            BASE.to_string()
+                + "[[stage]]\nname = \"shell to 14 m\"\nlining = false\ntop_z_m = 14.0\nduration_years = 0.1\n",
+            "stage[0].top_z_m = 14: lies inside opening[0] (10 to 18 m): put the stage's top at \
+             or below the opening's bottom, or at or above its top",
+        ),
+        (
             "opening wider than the shell",
             edit("width_m = 3.0", "width_m = 12.0"),
             "opening[0].width_m = 12: wider than the shell: the outer diameter is 11.1 m at z = \

@@ -250,6 +250,11 @@ pub fn validate(raw: &RawCase, csv: Option<&CsvStations>) -> Result<Case, Vec<Va
     let stages = check_stages(&mut c, raw, height_m);
     let stages_valid = c.issues.len() == before_stages;
     check_point_mass_stages(&mut c, raw, &stages, stages_valid, shell.as_ref());
+    if stages_valid {
+        if let Some(s) = &shell {
+            opening::check_stage_tops(&mut c, &stages, &s.openings);
+        }
+    }
     // `None` = no [wind] in the file; `Some(None)` = a [wind] with problems.
     let wind = raw.wind.as_ref().map(|w| check_wind(&mut c, w));
     if let Some(Some(w)) = &wind {

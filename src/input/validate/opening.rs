@@ -188,6 +188,30 @@ fn check_fit(
     }
 }
 
+/// A stage's top inside an opening (from < top < to) is refused: the stage would hold half
+/// an opening whose lintel is not yet cast, which is no section the net-section rules
+/// describe. An opening wholly above a stage's top is simply not in that stage (the shell
+/// is not built there yet).
+pub(super) fn check_stage_tops(c: &mut Checker, stages: &[Stage], openings: &[Opening]) {
+    for (i, st) in stages.iter().enumerate() {
+        let Some(top) = st.top_z_m else { continue };
+        for (k, o) in openings.iter().enumerate() {
+            if o.from_z_m < top && top < o.to_z_m {
+                c.fail(
+                    format!("stage[{i}].top_z_m"),
+                    top,
+                    format!(
+                        "lies inside opening[{k}] ({} to {} m): put the stage's top at or \
+                         below the opening's bottom, or at or above its top",
+                        num(o.from_z_m),
+                        num(o.to_z_m)
+                    ),
+                );
+            }
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use std::path::Path;

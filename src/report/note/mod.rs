@@ -82,6 +82,7 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
             "<section class=\"major\">\n<h2>{next} Along-wind action and the vortex case</h2>"
         );
         along::write(&mut o, along);
+        o.push_str(&which_speed(input.case));
         put(&mut o, "along_moments.svg");
         o.push_str("</section>\n");
         next += 1;
@@ -128,4 +129,39 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
          note: modes.csv, vortex.csv, lock_in.csv, loads.csv, along_wind.csv (with the EN site wind), resistance.csv (with [reinforcement]), summary.json.</footer>\n</body>\n</html>"
     );
     o
+}
+
+/// One paragraph saying which wind speed drives which check (a case gives the site wind
+/// both ways when it asks for the along-wind action).
+fn which_speed(case: &crate::case::Case) -> String {
+    let (Some(w), Some(a)) = (case.wind.as_ref(), case.along_wind.as_ref()) else {
+        return String::new();
+    };
+    let profile = match w.profile {
+        crate::case::Profile::Power { exponent } => format!("power law, exponent {exponent}"),
+        crate::case::Profile::Log { roughness_m, .. } => {
+            format!("logarithmic law, z<sub>0</sub> = {roughness_m} m")
+        }
+    };
+    let terrain = match a.terrain {
+        crate::case::TerrainCategory::Zero => "0",
+        crate::case::TerrainCategory::I => "I",
+        crate::case::TerrainCategory::II => "II",
+        crate::case::TerrainCategory::III => "III",
+        crate::case::TerrainCategory::IV => "IV",
+    };
+    format!(
+        "<p>Which wind drives which check: the vortex-shedding checks (verdicts, loads, and the \
+         vortex moments here) use <code>wind.reference_speed_m_s</code> = {} m/s at {} m with \
+         the {profile}; the along-wind design action uses the EN 1991-1-4 chapter 4 profile of \
+         terrain category {terrain} from v<sub>b,0</sub> = {} m/s (c<sub>dir</sub> = {}, \
+         c<sub>season</sub> = {}, c<sub>o</sub> = {}). Both are scaled per stage by the \
+         stage's c<sub>prob</sub> (see the stage comparison).</p>\n",
+        w.reference_speed_m_s,
+        w.reference_height_m,
+        a.basic_speed_m_s,
+        a.c_dir,
+        a.c_season,
+        a.orography_factor
+    )
 }
