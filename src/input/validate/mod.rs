@@ -167,6 +167,36 @@ impl Checker {
         v.filter(|&x| self.positive(path, x))
     }
 
+    /// A height range `{prefix}.from_z_m` .. `{prefix}.to_z_m`: both finite, inside the
+    /// shell (when its height is known) and from < to. Returns whether both ends are finite
+    /// and ordered.
+    fn height_range(
+        &mut self,
+        prefix: &str,
+        from_z_m: f64,
+        to_z_m: f64,
+        height_m: Option<f64>,
+    ) -> bool {
+        let from_path = format!("{prefix}.from_z_m");
+        let to_path = format!("{prefix}.to_z_m");
+        let from_ok = self.finite(&from_path, from_z_m);
+        let to_ok = self.finite(&to_path, to_z_m);
+        if from_ok {
+            within_shell(self, &from_path, from_z_m, height_m);
+        }
+        if to_ok {
+            within_shell(self, &to_path, to_z_m, height_m);
+        }
+        if from_ok && to_ok && from_z_m >= to_z_m {
+            return self.fail(
+                &to_path,
+                to_z_m,
+                format!("must be above from_z_m ({} m)", num(from_z_m)),
+            );
+        }
+        from_ok && to_ok
+    }
+
     fn poisson(&mut self, path: &str, v: f64) -> bool {
         self.finite(path, v)
             && ((0.0..0.5).contains(&v) || self.fail(path, v, "must be >= 0 and < 0.5"))

@@ -28,23 +28,7 @@ pub(super) fn check_openings(
     for (i, o) in raw.iter().enumerate() {
         let p = format!("opening[{i}]");
         let before = c.issues.len();
-        let from_path = format!("{p}.from_z_m");
-        let to_path = format!("{p}.to_z_m");
-        let from_ok = c.finite(&from_path, o.from_z_m);
-        let to_ok = c.finite(&to_path, o.to_z_m);
-        if from_ok {
-            within_shell(c, &from_path, o.from_z_m, height_m);
-        }
-        if to_ok {
-            within_shell(c, &to_path, o.to_z_m, height_m);
-        }
-        if from_ok && to_ok && o.from_z_m >= o.to_z_m {
-            c.fail(
-                &to_path,
-                o.to_z_m,
-                format!("must be above from_z_m ({} m)", num(o.from_z_m)),
-            );
-        }
+        c.height_range(&p, o.from_z_m, o.to_z_m, height_m);
         c.positive(&format!("{p}.width_m"), o.width_m);
         let azimuth_deg = o.azimuth_deg.unwrap_or(0.0);
         let az_path = format!("{p}.azimuth_deg");

@@ -26,23 +26,7 @@ pub(super) fn check_zones(
     for (i, z) in raw.iter().enumerate() {
         let p = format!("shell.zone[{i}]");
         let before = c.issues.len();
-        let from_path = format!("{p}.from_z_m");
-        let to_path = format!("{p}.to_z_m");
-        let from_ok = c.finite(&from_path, z.from_z_m);
-        let to_ok = c.finite(&to_path, z.to_z_m);
-        if from_ok {
-            within_shell(c, &from_path, z.from_z_m, height_m);
-        }
-        if to_ok {
-            within_shell(c, &to_path, z.to_z_m, height_m);
-        }
-        if from_ok && to_ok && z.from_z_m >= z.to_z_m {
-            c.fail(
-                &to_path,
-                z.to_z_m,
-                format!("must be above from_z_m ({} m)", num(z.from_z_m)),
-            );
-        }
+        c.height_range(&p, z.from_z_m, z.to_z_m, height_m);
         if z.elastic_modulus_gpa.is_none()
             && z.density_kg_m3.is_none()
             && z.poisson_ratio.is_none()
@@ -97,7 +81,7 @@ pub(super) fn check_zones(
         for &(j, from, to) in &placed {
             if z.from_z_m < to && from < z.to_z_m {
                 c.fail(
-                    &from_path,
+                    format!("{p}.from_z_m"),
                     z.from_z_m,
                     format!(
                         "overlaps shell.zone[{j}] ({} to {} m); zones must not overlap",
