@@ -3,7 +3,7 @@
 //! the applied range multiplied by gamma_F,fat (recommended 1.0) and the resisting range
 //! divided by gamma_S,fat (1.15, Table 2.1N, from memory), Palmgren-Miner sum (6.70).
 //!
-//! Source read: a public copy (French transcription) of EN 1992-1-1 6.8.4 with Table 6.3N
+//! Source read: a public copy (French edition) of EN 1992-1-1 6.8.4 with Table 6.3N
 //! and the note on gamma_F,fat. Units: Pa, cycles.
 
 /// An S-N curve of EN 1992-1-1 Figure 6.30 / Table 6.3N.

@@ -5,7 +5,7 @@
 //! Sign convention: compression positive (strain and stress), as in 3.1.7 where the
 //! compressive strain is written positive. Units: Pa, strain dimensionless.
 //!
-//! Sources read: a public copy (French transcription) of NBN EN 1992-1-1:2004 section 3,
+//! Sources read: a public copy (French edition) of NBN EN 1992-1-1:2004 section 3,
 //! Table 3.1 and its analytic expressions for eps_c2, eps_cu2, n (f_ck >= 50 MPa) and 3.1.6
 //! (f_cd = alpha_cc f_ck / gamma_c, alpha_cc recommended 1). Expression 3.17
 //! sigma_c = f_cd (1 - (1 - eps_c / eps_c2)^n) for 0 <= eps_c < eps_c2, 3.18 sigma_c = f_cd
