@@ -399,7 +399,10 @@ pub fn stdout_summary(h: &RiskHeader, a: &Accumulator) -> String {
                     r.stage.as_str()
                 },
                 r.quantity.replace('_', " "),
-                r.probability_exceeding.map(num).unwrap_or_default(),
+                // Four decimals: finer than any standard error the terminal line shows.
+                r.probability_exceeding
+                    .map(|p| format!("{p:.4}"))
+                    .unwrap_or_default(),
                 r.standard_error
                     .map(|v| format!("{v:.2e}"))
                     .unwrap_or_default()
