@@ -46,7 +46,7 @@ pub(super) fn check_base(
 mod tests {
     use std::path::Path;
 
-    use crate::input::{parse_case, InputError};
+    use crate::input::parse_case;
 
     const CASE: &str = r#"
 [shell]
@@ -67,15 +67,7 @@ mass_kg = 2.0e7
 rotary_inertia_kg_m2 = 5.0e9
 "#;
 
-    fn errors(text: &str) -> Vec<String> {
-        match parse_case(text, Path::new("."), "t.toml") {
-            Ok(_) => vec![],
-            Err(InputError::Invalid { issues, .. }) => {
-                issues.iter().map(|i| i.to_string()).collect()
-            }
-            Err(e) => vec![e.to_string()],
-        }
-    }
+    use crate::input::validate::case_errors as errors;
 
     #[test]
     fn foundation_and_point_inertia_are_read() {

@@ -40,6 +40,19 @@ mod shell;
 mod stage;
 #[cfg(test)]
 mod tests;
+
+/// The issue texts of a case file's validation (empty when it is valid), for the rule
+/// modules' unit tests.
+#[cfg(test)]
+pub(crate) fn case_errors(text: &str) -> Vec<String> {
+    match crate::input::parse_case(text, std::path::Path::new("."), "t.toml") {
+        Ok(_) => vec![],
+        Err(crate::input::InputError::Invalid { issues, .. }) => {
+            issues.iter().map(|i| i.to_string()).collect()
+        }
+        Err(e) => vec![e.to_string()],
+    }
+}
 mod vortex;
 mod wind;
 mod zone;

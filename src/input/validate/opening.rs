@@ -200,7 +200,7 @@ pub(super) fn check_stage_tops(c: &mut Checker, stages: &[Stage], openings: &[Op
 mod tests {
     use std::path::Path;
 
-    use crate::input::{parse_case, InputError};
+    use crate::input::parse_case;
 
     /// A small valid case (invented) with one opening; tests change or add lines.
     const CASE: &str = r#"
@@ -218,15 +218,7 @@ width_m = 4.0
 label = "flue inlet"
 "#;
 
-    fn errors(text: &str) -> Vec<String> {
-        match parse_case(text, Path::new("."), "t.toml") {
-            Ok(_) => vec![],
-            Err(InputError::Invalid { issues, .. }) => {
-                issues.iter().map(|i| i.to_string()).collect()
-            }
-            Err(e) => vec![e.to_string()],
-        }
-    }
+    use crate::input::validate::case_errors as errors;
 
     fn second(from: f64, to: f64, width: f64, azimuth: f64) -> String {
         format!(

@@ -254,15 +254,7 @@ stations = [
 ]
 "#;
 
-    fn errors(text: &str) -> Vec<String> {
-        match parse_case(text, Path::new("."), "t.toml") {
-            Ok(_) => vec![],
-            Err(InputError::Invalid { issues, .. }) => {
-                issues.iter().map(|i| i.to_string()).collect()
-            }
-            Err(e) => vec![e.to_string()],
-        }
-    }
+    use crate::input::validate::case_errors as errors;
 
     #[test]
     fn a_step_holds_the_lower_station_below_and_the_upper_above() {

@@ -108,7 +108,7 @@ pub(super) fn check_zones(
 mod tests {
     use std::path::Path;
 
-    use crate::input::{parse_case, InputError};
+    use crate::input::parse_case;
 
     /// A small valid case (invented) with two zones; tests change one line.
     const CASE: &str = r#"
@@ -131,15 +131,7 @@ density_kg_m3 = 2400.0
 poisson_ratio = 0.18
 "#;
 
-    fn errors(text: &str) -> Vec<String> {
-        match parse_case(text, Path::new("."), "t.toml") {
-            Ok(_) => vec![],
-            Err(InputError::Invalid { issues, .. }) => {
-                issues.iter().map(|i| i.to_string()).collect()
-            }
-            Err(e) => vec![e.to_string()],
-        }
-    }
+    use crate::input::validate::case_errors as errors;
 
     #[test]
     fn zones_are_read_in_si_and_the_material_follows_them() {
