@@ -452,17 +452,18 @@ impl Element {
     pub fn shape_samples<P: ElementProperties>(&self, p: &P) -> ShapeSamples {
         let h = self.length_m;
         let variation = p.relative_variation();
-        let np = compliance_points(variation);
         let r = end_load_map(self.flexibility, h);
         let (xs, ws) = gauss::rule(mass_points(variation));
+        // The same compliance integrals as `integrate` took at these points (the fit for
+        // nearly uniform elements): exact to rounding, and a fraction of the nested rules.
+        let (_, at_points) = compliances(p, h, variation, xs);
         let mut out = ShapeSamples {
             s_m: Vec::with_capacity(xs.len()),
             weight_m: Vec::with_capacity(xs.len()),
             displacement_shapes: Vec::with_capacity(xs.len()),
         };
-        for (x, w) in xs.iter().zip(ws) {
+        for ((x, w), &c) in xs.iter().zip(ws).zip(&at_points) {
             let s = 0.5 * h * (1.0 + x);
-            let c = compliance_at(p, s, np);
             out.s_m.push(s);
             out.weight_m.push(0.5 * h * w);
             let nw = shapes_at(c, s, h, &r).0;
