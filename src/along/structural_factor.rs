@@ -15,8 +15,14 @@
 //! `mpentek`, exercise 4 notebook `swe_ws2021_4_2_structural_effects.ipynb`) for (B.2)-(B.8)
 //! and k_p; that notebook uses the German National Annex denominator 1 + 6 I_v, the EN
 //! recommended (6.1) has 1 + 7 I_v (the 7 of (4.8)), so the denominator factor is a parameter
-//! here. (F.15), (F.18) and T = 600 s: from memory. The background-only factor used at the
-//! critical speed is (6.1) with R^2 = 0 (see `critical`).
+//! here. The 1 + 7 I_v denominator of (6.1), k_p >= 3 with T = 600 s and nu >= 0.08 Hz
+//! (B.4, B.5) are also printed in the published design guide "Steel Buildings in Europe,
+//! Multi-Storey Steel Buildings, Part 3: Actions" (page 3-17, infosteel.be
+//! images/Steel-Buildings-in-Europe/MSB03/26). delta = delta_s + delta_a (+ delta_d, none
+//! here) and delta_a = c_f rho b v_m(z_s) / (2 n m_e) appear in that guide's worked example
+//! (Appendix A, page 3-32, MSB03/41) as EN 1991-1-4 F.5(1) and F.5(4); the expression numbers
+//! (F.15), (F.18) are from memory. The background-only factor used at the critical speed is
+//! (6.1) with R^2 = 0 (see `critical`).
 //!
 //! Dimensionless except where the name says (m, m/s, Hz, kg/m).
 
@@ -99,7 +105,8 @@ pub fn combine(k_p: f64, i_v: f64, b2: f64, r2: f64, denominator_factor: f64) ->
     (1.0 + 2.0 * k_p * i_v * (b2 + r2).sqrt()) / (1.0 + denominator_factor * i_v)
 }
 
-/// Aerodynamic log decrement delta_a (F.18), from memory.
+/// Aerodynamic log decrement delta_a, EN 1991-1-4 F.5(4) (expression (F.18)): as used in the
+/// worked example of the "Steel Buildings in Europe" guide cited in the module doc.
 pub fn aerodynamic_log_decrement(
     force_coefficient: f64,
     air_density_kg_m3: f64,

@@ -14,7 +14,11 @@
 //! - L(z) = L_t (max(z, z_min) / z_t)^alpha, L_t = 300 m, z_t = 200 m,
 //!   alpha = 0.67 + 0.05 ln(z0) (B.1), as written in two public implementations (see
 //!   data/reference/README.md).
-//! - Table 4.1 (z0, z_min): from memory; not re-read from a public copy.
+//! - Table 4.1 (z0, z_min): 0.003/0.01/0.05/0.3/1.0 m and 1/1/2/5/10 m for categories
+//!   0/I/II/III/IV, as transcribed with the table number in two public implementations:
+//!   `DanBeranek/desssign` `src/desssign/loads/wind/constants.py` (ROUGHNESS_LENGTH,
+//!   MINIMUM_HEIGHT) and `AMcCrone/tt-BS-EN-1991-1-4` `calc_engine/eu/roughness.py` (the
+//!   standard's copy itself was not read).
 //!
 //! EN 1991-1-4 4.3.2 limits the expressions to z <= z_max = 200 m; above that we extrapolate
 //! the same expressions (the caller warns).
@@ -62,7 +66,7 @@ impl TerrainCategory {
         }
     }
 
-    /// Roughness length z0, m (Table 4.1, from memory).
+    /// Roughness length z0, m (Table 4.1; public transcriptions, see the module doc).
     pub fn roughness_m(self) -> f64 {
         match self {
             Self::Zero => 0.003,
@@ -73,7 +77,7 @@ impl TerrainCategory {
         }
     }
 
-    /// Minimum height z_min, m (Table 4.1, from memory).
+    /// Minimum height z_min, m (Table 4.1; public transcriptions, see the module doc).
     pub fn z_min_m(self) -> f64 {
         match self {
             Self::Zero | Self::I => 1.0,

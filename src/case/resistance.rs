@@ -60,7 +60,8 @@ pub struct ReinforcementZone {
 }
 
 /// `[design]` partial factors; defaults are the recommended values of EN 1992-1-1 2.4.2.4
-/// (Table 2.1N) and 3.1.6, and EN 1990 Table A1.2(B) (from memory; NA may override).
+/// (Table 2.1N, quoted in public copies) and 3.1.6, and EN 1990 Table A1.2(B) (public
+/// implementations; see data/reference/README.md). A National Annex may override them.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct DesignFactors {
     pub gamma_c: f64,

@@ -3,7 +3,8 @@
 //! Today: each vortex mode's inertia moment (EN 1991-1-4 E.1.4, governing method, the
 //! `loads` of [`crate::wind::ModeVortex`]) times gamma_Q of `[design]` (EN 1990 Table
 //! A1.2(B): the inertia loads of E.1.4 are characteristic values of a wind action, so they
-//! take the factor of a leading variable action; recommended 1.5, from memory). The
+//! take the factor of a leading variable action; recommended 1.5, as in the public
+//! implementations listed in data/reference/README.md). The
 //! along-wind design moment (EN 1991-1-4 5.3 with c_s c_d, [`crate::along`]) and each mode's
 //! combined case at the critical speed (sqrt(M_across^2 + M_along,crit^2), common practice)
 //! are further [`ActionCurve`]s with the same gamma_Q ([`along_wind_actions`]); `extra` takes

@@ -23,7 +23,8 @@ use crate::modal::StageModel;
 
 /// gamma_F,fat, EN 1992-1-1 6.8.4 (1) note (recommended 1.0; public copy).
 pub const GAMMA_F_FAT: f64 = 1.0;
-/// gamma_S,fat, EN 1992-1-1 2.4.2.4 Table 2.1N (recommended 1.15; from memory).
+/// gamma_S,fat, EN 1992-1-1 2.4.2.4 (1) note: the persistent value of Table 2.1N, 1.15
+/// (public quotation of the text, data/reference/README.md).
 pub const GAMMA_S_FAT: f64 = 1.15;
 
 /// A characteristic bending-moment curve along the height with its load factor.

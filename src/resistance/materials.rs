@@ -9,8 +9,9 @@
 //! Table 3.1 and its analytic expressions for eps_c2, eps_cu2, n (f_ck >= 50 MPa) and 3.1.6
 //! (f_cd = alpha_cc f_ck / gamma_c, alpha_cc recommended 1). Expression 3.17
 //! sigma_c = f_cd (1 - (1 - eps_c / eps_c2)^n) for 0 <= eps_c < eps_c2, 3.18 sigma_c = f_cd
-//! for eps_c2 <= eps_c <= eps_cu2; the 3.2.7 steel branch f_yd = f_yk / gamma_s without a
-//! strain limit: from memory, in references.md.
+//! for eps_c2 <= eps_c <= eps_cu2; the 3.2.7 (2) b) steel branch f_yd = f_yk / gamma_s
+//! without a strain check, and 3.17/3.18 as written above, as restated clause by clause in a
+//! public EC2 code-rule dossier (see data/reference/README.md, "RC shell resistance").
 
 /// Concrete parabola-rectangle law of EN 1992-1-1 3.1.7.
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -1,10 +1,11 @@
 //! Validation of `[design]`: partial factors, each defaulting to its recommended value.
 //!
 //! Bounds (errors): gamma_c and gamma_s 1.0-2.0 (EN 1992-1-1 Table 2.1N: 1.5 / 1.15
-//! persistent, 1.2 / 1.0 accidental, from memory; 2.0 a generous ceiling, common practice);
-//! alpha_cc 0.8-1.0 (EN 1992-1-1 3.1.6 (1)P note, public copy); gamma_G,sup and gamma_Q
-//! 1.0-2.0, gamma_G,inf 0.0-1.0 and not above gamma_G,sup (EN 1990 Table A1.2(B): 1.35 /
-//! 1.00 / 1.5, from memory).
+//! persistent, 1.2 / 1.0 accidental, public quotations of the table; 2.0 a generous ceiling,
+//! common practice); alpha_cc 0.8-1.0 (EN 1992-1-1 3.1.6 (1)P note, public copy);
+//! gamma_G,sup and gamma_Q 1.0-2.0, gamma_G,inf 0.0-1.0 and not above gamma_G,sup (EN 1990
+//! Table A1.2(B): 1.35 / 1.00 / 1.5, as in the public implementations `xcfem/xc` and
+//! `DanBeranek/desssign`; sources in data/reference/README.md).
 
 use super::*;
 use crate::case::DesignFactors;

@@ -6,7 +6,8 @@
 //!   (public copy); required when `[reinforcement]` is given.
 //! - `reinforcement.characteristic_strength_mpa` (f_yk) 400-600 MPa: EN 1992-1-1 3.2.2 (3)P
 //!   (from memory; the same range is stated in the open-source xc package's EC2 steel module).
-//! - `reinforcement.elastic_modulus_gpa` default 200 (EN 1992-1-1 3.2.7 (4), from memory),
+//! - `reinforcement.elastic_modulus_gpa` default 200 (EN 1992-1-1 3.2.7 (4), as restated in a
+//!   public EC2 code-rule dossier, data/reference/README.md),
 //!   150-250 accepted (common practice).
 //! - Ratios 0-0.08 per layer: 0.08 of the concrete area is the most EN 1992-1-1 allows even at
 //!   laps (9.5.2 (3), from memory); a zone needs some steel.
