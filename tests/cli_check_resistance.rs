@@ -91,3 +91,53 @@ fn without_reinforcement_one_line_says_skipped() {
         .stdout(predicate::str::contains("resistance and reinforcement fatigue: skipped").count(1));
     assert!(!dir.path().join("out/resistance.csv").exists());
 }
+
+#[test]
+fn a_fatigue_factor_out_of_range_exits_2_naming_key_value_and_rule() {
+    // gamma_S,fat below 1 (EN 1992-1-1 Table 2.1N recommends 1.15; the case file refuses
+    // values outside 1.0-2.0): an error naming the key, the value and the rule, exit 2, and
+    // no output written.
+    let (dir, case) = demo_with_steel(0.003, 0.002);
+    let text = std::fs::read_to_string(&case).unwrap();
+    std::fs::write(&case, format!("{text}\n[design]\ngamma_s_fat = 0.8\n")).unwrap();
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(&case)
+        .arg("--out")
+        .arg(&out)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains(
+            "design.gamma_s_fat = 0.8: must be between 1 and 2",
+        ));
+    assert!(!out.join("resistance.csv").exists());
+}
+
+#[test]
+fn the_note_prints_the_fatigue_factors_where_the_damage_is_explained() {
+    let (dir, case) = demo_with_steel(0.003, 0.002);
+    let text = std::fs::read_to_string(&case).unwrap();
+    std::fs::write(
+        &case,
+        format!("{text}\n[design]\ngamma_f_fat = 1.1\ngamma_s_fat = 1.2\n"),
+    )
+    .unwrap();
+    let out = dir.path().join("out");
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("check")
+        .arg(&case)
+        .arg("--out")
+        .arg(&out)
+        .assert()
+        .code(predicate::in_iter([0, 1]));
+    let note = std::fs::read_to_string(out.join("report.html")).unwrap();
+    let para = note
+        .split("<p>")
+        .find(|p| p.starts_with("Fatigue: stress range"))
+        .expect("the fatigue explanation");
+    assert!(para.contains("γ_F,fat = 1.100 ("), "{para}");
+    assert!(para.contains("γ_S,fat = 1.200 ("), "{para}");
+}

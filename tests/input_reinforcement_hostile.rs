@@ -2,7 +2,9 @@
 //! characteristic_strength_mpa` and `[design]`: every bad value is an error naming its
 //! field (`path = value: rule`), never a panic. Limits: EN 1992-1-1 Table 3.1 (f_ck 12-90 MPa,
 //! public copy), 3.2.2 (f_yk 400-600 MPa, memory), 9.5.2 (3) (ratio <= 0.08, memory), 3.1.6
-//! (alpha_cc 0.8-1.0, public copy); covers inside the wall (geometry).
+//! (alpha_cc 0.8-1.0, public copy); covers inside the wall (geometry); the fatigue factors
+//! gamma_f_fat, gamma_s_fat 1.0-2.0 (recommended 1.0 / 1.15, EN 1992-1-1 6.8.4 (1) note and
+//! Table 2.1N; the 2.0 ceiling is common practice).
 
 use std::path::Path;
 
@@ -183,6 +185,21 @@ fn design_factors() {
         &d("gamma_g_inf = 1.0\ngamma_g_sup = 1.0\ngamma_s = inf"),
         "design.gamma_s = inf",
     );
+    // Fatigue factors (EN 1992-1-1 6.8.4 (1) note and Table 2.1N; 1.0-2.0, see design.rs).
+    expect(
+        &d("gamma_f_fat = 0.9"),
+        "design.gamma_f_fat = 0.9: must be between 1 and 2",
+    );
+    expect(
+        &d("gamma_s_fat = 2.5"),
+        "design.gamma_s_fat = 2.5: must be between 1 and 2",
+    );
+    expect(
+        &d("gamma_s_fat = nan"),
+        "design.gamma_s_fat = nan: must be a finite number",
+    );
+    expect(&d("gamma_f_fat = -inf"), "design.gamma_f_fat = -inf");
+    expect(&d("gamma_fat = 1.1"), "gamma_fat");
     let c = parse_case(&d("gamma_c = 1.2\ngamma_q = 1.0"), Path::new("."), "t.toml").unwrap();
     let f = c.resistance.unwrap().factors;
     assert_eq!((f.gamma_c, f.gamma_q, f.gamma_s), (1.2, 1.0, 1.15));

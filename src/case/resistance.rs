@@ -61,7 +61,10 @@ pub struct ReinforcementZone {
 
 /// `[design]` partial factors; defaults are the recommended values of EN 1992-1-1 2.4.2.4
 /// (Table 2.1N, quoted in public copies) and 3.1.6, and EN 1990 Table A1.2(B) (public
-/// implementations; see data/reference/README.md). A National Annex may override them.
+/// implementations; see data/reference/README.md; a National Annex may override them); the
+/// fatigue factors gamma_F,fat (EN 1992-1-1 6.8.4 (1) note, recommended 1.0; public copy,
+/// French edition) and gamma_S,fat (EN 1992-1-1 2.4.2.4 (1) note: the persistent value of
+/// Table 2.1N, 1.15, public quotation of the text).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct DesignFactors {
     pub gamma_c: f64,
@@ -70,6 +73,10 @@ pub struct DesignFactors {
     pub gamma_g_sup: f64,
     pub gamma_g_inf: f64,
     pub gamma_q: f64,
+    /// gamma_F,fat: multiplies the applied stress range in the fatigue check.
+    pub gamma_f_fat: f64,
+    /// gamma_S,fat: divides the reference range Delta sigma_Rsk of the S-N curve.
+    pub gamma_s_fat: f64,
 }
 
 impl Default for DesignFactors {
@@ -81,6 +88,8 @@ impl Default for DesignFactors {
             gamma_g_sup: 1.35,
             gamma_g_inf: 1.0,
             gamma_q: 1.5,
+            gamma_f_fat: 1.0,
+            gamma_s_fat: 1.15,
         }
     }
 }

@@ -96,6 +96,8 @@ pub struct RawDesign {
     pub gamma_g_sup: Option<f64>,
     pub gamma_g_inf: Option<f64>,
     pub gamma_q: Option<f64>,
+    pub gamma_f_fat: Option<f64>,
+    pub gamma_s_fat: Option<f64>,
 }
 
 /// `[project]`: title-block text of the design note.

@@ -21,12 +21,6 @@ use super::ResistanceError;
 use crate::case::{Opening, ResistanceSpec};
 use crate::modal::StageModel;
 
-/// gamma_F,fat, EN 1992-1-1 6.8.4 (1) note (recommended 1.0; public copy).
-pub const GAMMA_F_FAT: f64 = 1.0;
-/// gamma_S,fat, EN 1992-1-1 2.4.2.4 (1) note: the persistent value of Table 2.1N, 1.15
-/// (public quotation of the text, data/reference/README.md).
-pub const GAMMA_S_FAT: f64 = 1.15;
-
 /// A characteristic bending-moment curve along the height with its load factor.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ActionCurve {
@@ -230,7 +224,9 @@ pub fn check_stage(
             });
         }
     }
-    // Fatigue: N from the characteristic self-weight (gamma = 1, permanent action).
+    // Fatigue: N from the characteristic self-weight (gamma = 1, permanent action); the
+    // fatigue partial factors of [design] (EN 1992-1-1 6.8.4, Table 2.1N).
+    let f = spec.factors;
     let curve = SnCurve::STRAIGHT_BARS;
     let mut per_node = vec![0.0; nodes.len()];
     let mut modes = Vec::new();
@@ -261,7 +257,7 @@ pub fn check_stage(
             let range = sec
                 .max_bar_stress_range_pa(nd.self_weight_n, m)
                 .ok_or((nd.z_m, ResistanceError::NoElasticState { moment_nm: m }))?;
-            let d = curve.damage(range, fa.cycles, GAMMA_F_FAT, GAMMA_S_FAT);
+            let d = curve.damage(range, fa.cycles, f.gamma_f_fat, f.gamma_s_fat);
             per_node[i] += d;
             if d > worst.damage || (worst.damage == 0.0 && range > worst.stress_range_pa) {
                 worst.z_m = nd.z_m;

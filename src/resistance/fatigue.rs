@@ -1,7 +1,8 @@
 //! Fatigue damage of the vertical reinforcement, EN 1992-1-1 6.8.4: S-N curve of
 //! Table 6.3N for straight bars (N* = 1e6, k1 = 5, k2 = 9, Delta sigma_Rsk = 162.5 MPa),
 //! the applied range multiplied by gamma_F,fat (recommended 1.0) and the resisting range
-//! divided by gamma_S,fat (1.15), Palmgren-Miner sum (6.70).
+//! divided by gamma_S,fat (1.15), Palmgren-Miner sum (6.70). Both factors are case-file keys
+//! (`[design] gamma_f_fat`, `gamma_s_fat`), passed in here.
 //!
 //! Sources read: a public copy (French edition) of EN 1992-1-1 6.8.4 with Table 6.3N
 //! and the note on gamma_F,fat; gamma_S,fat = 1.15 because the 2.4.2.4 (1) note recommends

@@ -5,7 +5,11 @@
 //! common practice); alpha_cc 0.8-1.0 (EN 1992-1-1 3.1.6 (1)P note, public copy);
 //! gamma_G,sup and gamma_Q 1.0-2.0, gamma_G,inf 0.0-1.0 and not above gamma_G,sup (EN 1990
 //! Table A1.2(B): 1.35 / 1.00 / 1.5, as in the public implementations `xcfem/xc` and
-//! `DanBeranek/desssign`; sources in data/reference/README.md).
+//! `DanBeranek/desssign`; sources in data/reference/README.md); the fatigue factors
+//! gamma_F,fat and gamma_S,fat 1.0-2.0 (recommended 1.0, EN 1992-1-1 6.8.4 (1) note, and
+//! 1.15, the 2.4.2.4 (1) note with Table 2.1N; a factor below 1 would credit the bars with
+//! more fatigue life than the S-N curve gives, and 2.0 is a generous ceiling, common
+//! practice).
 
 use super::*;
 use crate::case::DesignFactors;
@@ -35,6 +39,8 @@ pub(super) fn check_design(c: &mut Checker, raw: Option<&RawDesign>) -> DesignFa
         gamma_g_sup: pick("gamma_g_sup", r.gamma_g_sup, d.gamma_g_sup, 1.0, 2.0),
         gamma_g_inf: pick("gamma_g_inf", r.gamma_g_inf, d.gamma_g_inf, 0.0, 1.0),
         gamma_q: pick("gamma_q", r.gamma_q, d.gamma_q, 1.0, 2.0),
+        gamma_f_fat: pick("gamma_f_fat", r.gamma_f_fat, d.gamma_f_fat, 1.0, 2.0),
+        gamma_s_fat: pick("gamma_s_fat", r.gamma_s_fat, d.gamma_s_fat, 1.0, 2.0),
     };
     if f.gamma_g_inf > f.gamma_g_sup {
         c.fail(

@@ -92,7 +92,13 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
             o,
             "<section class=\"major\">\n<h2>{next} Resistance of the RC shell and fatigue of the reinforcement</h2>"
         );
-        resistance::write(&mut o, r);
+        let factors = input
+            .case
+            .resistance
+            .as_ref()
+            .map(|s| s.factors)
+            .unwrap_or_default();
+        resistance::write(&mut o, r, &factors);
         put(&mut o, "resistance.svg");
         o.push_str("</section>\n");
         next += 1;

@@ -5,9 +5,9 @@
 use std::fmt::Write as _;
 
 use super::markup::{heads, n, num, sci, t, Cell, Table};
+use crate::case::DesignFactors;
 use crate::report::ReportInput;
 use crate::resistance::actions::ResistanceResults;
-use crate::resistance::along_height::{GAMMA_F_FAT, GAMMA_S_FAT};
 
 /// Subsection 2.5: the resistance inputs as validated.
 pub(super) fn write_inputs(out: &mut String, input: &ReportInput) {
@@ -36,10 +36,10 @@ pub(super) fn write_inputs(out: &mut String, input: &ReportInput) {
             n(num(f.gamma_g_inf, 3)),
         ],
         vec![t("γ_Q (EN 1990 Table A1.2(B))"), n(num(f.gamma_q, 3))],
-        vec![t("γ_F,fat (EN 1992-1-1 6.8.4)"), n(num(GAMMA_F_FAT, 3))],
+        vec![t("γ_F,fat (EN 1992-1-1 6.8.4)"), n(num(f.gamma_f_fat, 3))],
         vec![
             t("γ_S,fat (EN 1992-1-1 Table 2.1N)"),
-            n(num(GAMMA_S_FAT, 3)),
+            n(num(f.gamma_s_fat, 3)),
         ],
     ];
     Table {
@@ -74,8 +74,9 @@ pub(super) fn write_inputs(out: &mut String, input: &ReportInput) {
     .write(out);
 }
 
-/// The results section body.
-pub(super) fn write(out: &mut String, r: &ResistanceResults) {
+/// The results section body; `f` the partial factors the check used (the fatigue ones are
+/// printed where the damage is explained).
+pub(super) fn write(out: &mut String, r: &ResistanceResults, f: &DesignFactors) {
     out.push_str(
         "<p>At every mesh node: N_Ed = γ_G N_G from the self-weight above (shell, lining when \
          installed, point masses; g = 9.80665 m/s²), checked with γ_G,inf and γ_G,sup, the one \
@@ -85,12 +86,21 @@ pub(super) fn write(out: &mut String, r: &ResistanceResults) {
          rings, concrete tension ignored), integrated to 1e-8 relative. Utilisation = \
          M_Ed / M_Rd with M_Ed = load factor × characteristic moment of each action. The \
          vortex inertia moments (EN 1991-1-4 E.1.4) take γ_Q: they are characteristic effects \
-         of a wind action (EN 1990 Table A1.2(B)).</p>\n<p>Fatigue: stress range of the vertical \
-         bars on the cracked elastic section (no concrete tension, the shell's E for the \
-         concrete) between +M and −M of each vortex mode at constant characteristic N_G; \
-         damage n / N(γ_F,fat Δσ) with the straight-bar S-N curve of EN 1992-1-1 6.8.4 \
-         Table 6.3N (N* = 10⁶, k₁ = 5, k₂ = 9, Δσ_Rsk = 162.5 MPa / γ_S,fat), n = the mode's \
-         cycle count (EN 1991-1-4 E.1.5.2.6); the modes' damages are summed per height.</p>\n",
+         of a wind action (EN 1990 Table A1.2(B)).</p>\n",
+    );
+    let _ = writeln!(
+        out,
+        "<p>Fatigue: stress range of the vertical bars on the cracked elastic section (no \
+         concrete tension, the shell's E for the concrete) between +M and −M of each vortex \
+         mode at constant characteristic N_G; damage D = n / N with the straight-bar S-N \
+         curve of EN 1992-1-1 6.8.4 Table 6.3N: N = N* (Δσ_Rsk / (γ_F,fat γ_S,fat Δσ))^k, \
+         N* = 10⁶, Δσ_Rsk = 162.5 MPa, k = k₁ = 5 where N ≤ N* (γ_F,fat Δσ ≥ Δσ_Rsk / \
+         γ_S,fat), k₂ = 9 where N > N*; γ_F,fat = {} (EN 1992-1-1 6.8.4 (1), [design] \
+         gamma_f_fat), γ_S,fat = {} (EN 1992-1-1 Table 2.1N, [design] gamma_s_fat); n = the \
+         mode's cycle count (EN 1991-1-4 E.1.5.2.6); the modes' damages are summed per \
+         height.</p>",
+        num(f.gamma_f_fat, 3),
+        num(f.gamma_s_fat, 3)
     );
     let rows: Vec<Vec<Cell>> = r
         .stages
