@@ -238,7 +238,8 @@ pub fn registry() -> Vec<ConstantEntry> {
             "return periods of execution stages (EN 1991-1-6 Table 3.1)",
             probability::EXECUTION_RETURN_PERIODS
                 .iter()
-                .map(|(d, t)| format!("duration <= {d:.4} years: {t} years"))
+                .zip(probability::EXECUTION_DURATION_WORDS)
+                .map(|((d, t), words)| format!("up to {words} ({d:.4} years): {t} years"))
                 .chain([format!(
                     "longer: {} years",
                     probability::IN_SERVICE_RETURN_PERIOD_YEARS

@@ -35,6 +35,8 @@ const BOUND_ALLOWANCE: f64 = 1e-3;
 /// EN 1991-1-6 Table 3.1 (from memory): (longest duration in years, return period in years).
 pub const EXECUTION_RETURN_PERIODS: [(f64, f64); 3] =
     [(3.0 / DAYS_PER_YEAR, 2.0), (0.25, 5.0), (1.0, 10.0)];
+/// The durations of [`EXECUTION_RETURN_PERIODS`] as Table 3.1 writes them, for the note.
+pub const EXECUTION_DURATION_WORDS: [&str; 3] = ["3 days", "3 months", "1 year"];
 
 /// The probability factor c_prob of EN 1991-1-4 expression (4.2) for a return period of
 /// `return_period_years` (> 1), with shape parameter `k` and exponent `n`. 1 at 50 years.
