@@ -36,7 +36,9 @@ pub(super) fn num(x: f64, digits: usize) -> String {
 /// Scientific notation with 3 decimals, "-" for a non-finite value.
 pub(super) fn sci(x: f64) -> String {
     if x.is_finite() {
-        format!("{x:.3e}")
+        let s = format!("{x:.3e}");
+        // 6.315e0 reads as a typo: between 1 and 10 the plain decimal says the same.
+        s.strip_suffix("e0").map_or(s.clone(), str::to_string)
     } else {
         "-".into()
     }
@@ -125,5 +127,13 @@ mod tests {
             html_escape("<script>alert(1)</script> & \"x\" 'y'"),
             "&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;x&quot; &#39;y&#39;"
         );
+    }
+
+    #[test]
+    fn scientific_numbers_drop_a_zero_exponent_only() {
+        assert_eq!(sci(6.3154), "6.315");
+        assert_eq!(sci(0.011612), "1.161e-2");
+        assert_eq!(sci(213_500.0), "2.135e5");
+        assert_eq!(sci(f64::NAN), "-");
     }
 }
