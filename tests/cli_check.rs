@@ -17,7 +17,9 @@ fn example(extra: &str) -> (tempfile::TempDir, std::path::PathBuf) {
     ))
     .unwrap();
     // The tests here bring their own criteria (or none): the example's are taken out.
-    let text = &text[..text.find("\n# Acceptance criterion").expect("example's criteria")];
+    let text = &text[..text
+        .find("\n# Acceptance criterion")
+        .expect("example's criteria")];
     let case = dir.path().join("case.toml");
     std::fs::write(&case, format!("{text}\n{extra}")).unwrap();
     (dir, case)

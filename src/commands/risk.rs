@@ -17,7 +17,7 @@ use std::path::{Path, PathBuf};
 use indicatif::{ProgressBar, ProgressStyle};
 
 use crate::error::Error;
-use crate::input::{self, keypath, uncertain};
+use crate::input::{self, keypath, rank_correlation, uncertain};
 use crate::report::risk as out;
 use crate::report::staging::Staging;
 use crate::risk::run::{run_range, RowWriter};
@@ -249,6 +249,8 @@ pub fn run(case_path: &Path, o: &RiskOptions, out_dir: &Path) -> Result<CommandR
     let base_dir = case_path.parent().unwrap_or_else(|| Path::new(""));
     let entries = uncertain::read(&table).map_err(|issues| invalid(&label, issues))?;
     let inputs = inputs_of(&table, base_dir, &label, &entries)?;
+    let correlations =
+        rank_correlation::read(&table, &entries).map_err(|issues| invalid(&label, issues))?;
     crate::wind::site_wind(&case, "risk")?;
 
     let full = |values: &[f64]| -> Result<crate::case::Case, String> {
@@ -268,11 +270,14 @@ pub fn run(case_path: &Path, o: &RiskOptions, out_dir: &Path) -> Result<CommandR
         })
     };
     let mut staging = Staging::begin(out_dir)?;
-    let engine = Engine::new(&case, &inputs, o.seed, &full).map_err(|e| match e {
-        risk::RiskError::Modal(m) => Error::Modal(m),
-        risk::RiskError::Wind(w) => Error::Wind(w),
-    })?;
-    let header = header(&case, &engine, o)?;
+    let engine = Engine::new(&case, &inputs, o.seed, &full)
+        .map_err(|e| match e {
+            risk::RiskError::Modal(m) => Error::Modal(m),
+            risk::RiskError::Wind(w) => Error::Wind(w),
+        })?
+        .with_copula(correlations.copula.clone());
+    let mut header = header(&case, &engine, o)?;
+    header.correlations = correlations.info.clone();
     let (k, n) = o.shard.unwrap_or((1, 1));
     let (from, to) = risk::shard_range(o.samples, k, n);
 
@@ -325,9 +330,11 @@ pub fn run(case_path: &Path, o: &RiskOptions, out_dir: &Path) -> Result<CommandR
         stdout.push_str(&out::stdout_summary(&header, &acc));
     }
     let files = staging.commit()?;
+    let mut warn = correlations.warnings.clone();
+    warn.extend(warnings(&header, &acc));
     Ok(CommandReport {
         stdout,
-        warnings: warnings(&header, &acc),
+        warnings: warn,
         check_failed: false,
         not_judged: false,
         files,
@@ -408,6 +415,7 @@ fn header(case: &crate::case::Case, engine: &Engine, o: &RiskOptions) -> Result<
         stages: case.stages.iter().map(|s| s.name.clone()).collect(),
         stage_of: engine.kernels.iter().map(|k| k.stage_index).collect(),
         modes,
+        correlations: Vec::new(),
     })
 }
 

@@ -232,9 +232,11 @@ struct RiskJson<'a> {
     seed: u64,
     method: &'a str,
     inputs: &'a [crate::risk::InputInfo],
+    rank_correlations: &'a [crate::risk::correlation::CorrelationInfo],
+    correlation_method: &'static str,
     percentile_relative_accuracy: f64,
     percentile_method: &'static str,
-    influence_method: &'static str,
+    influence_method: String,
     rows: Vec<RowJson>,
     cautions: &'static [&'static str],
 }
@@ -251,6 +253,27 @@ pub const PERCENTILE_METHOD: &str = "logarithmic-bin quantile sketch (mergeable)
 pub const INFLUENCE_METHOD: &str = "rank correlation between each input's population rank \
      U = F(X) and the event indicator, using the population moments of U (mean 1/2, \
      variance 1/12); standard error about (1 - r^2) / sqrt(N)";
+
+/// How correlated inputs are sampled (note and summary.json).
+pub const CORRELATION_METHOD: &str = "Gaussian copula: each sample's independent uniforms of \
+     the correlated inputs become standard normals, are correlated with the Cholesky factor of \
+     the normal-score matrix R_ij = 2 sin(pi rho_ij / 6) (Pearson 1907; the Spearman rank \
+     correlation of the copula is then exactly rho_ij) and mapped back through Phi and each \
+     input's own (truncated) quantile, so every marginal is unchanged";
+
+/// What the influence measures when inputs are correlated.
+pub const CORRELATED_INFLUENCE: &str = "With correlated inputs the influence of an input \
+     measures its total association with the event (its own effect plus that of the inputs \
+     correlated with it), not its unique contribution";
+
+/// The influence method as written for this run.
+pub fn influence_method(h: &RiskHeader) -> String {
+    if h.correlations.is_empty() {
+        INFLUENCE_METHOD.to_string()
+    } else {
+        format!("{INFLUENCE_METHOD}. {CORRELATED_INFLUENCE}")
+    }
+}
 
 /// summary.json bytes.
 pub fn summary_json(h: &RiskHeader, a: &Accumulator) -> Result<Vec<u8>, ReportError> {
@@ -285,9 +308,15 @@ pub fn summary_json(h: &RiskHeader, a: &Accumulator) -> Result<Vec<u8>, ReportEr
             seed: h.seed,
             method: &h.method,
             inputs: &h.inputs,
+            rank_correlations: &h.correlations,
+            correlation_method: if h.correlations.is_empty() {
+                "none: the inputs are sampled independently"
+            } else {
+                CORRELATION_METHOD
+            },
             percentile_relative_accuracy: RELATIVE_ACCURACY,
             percentile_method: PERCENTILE_METHOD,
-            influence_method: INFLUENCE_METHOD,
+            influence_method: influence_method(h),
             rows,
             cautions: super::CAUTIONS,
         },
@@ -458,7 +487,30 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
             }
         );
     }
-    s.push_str("</tbody></table>\n<h2>Method</h2>\n<ul>\n");
+    s.push_str("</tbody></table>\n");
+    s.push_str("<h2>Rank correlations</h2>\n");
+    if h.correlations.is_empty() {
+        s.push_str("<p>None: the inputs are sampled independently.</p>\n");
+    } else {
+        s.push_str("<table><thead><tr><th>keys</th><th>Spearman rho_s</th><th>normal-score R = 2 sin(pi rho_s / 6)</th></tr></thead><tbody>\n");
+        for c in &h.correlations {
+            let _ = writeln!(
+                s,
+                "<tr><td>{} / {}</td><td class=\"n\">{}</td><td class=\"n\">{:.6}</td></tr>",
+                escape(&c.keys[0]),
+                escape(&c.keys[1]),
+                num(c.spearman),
+                c.normal_score_correlation
+            );
+        }
+        let _ = writeln!(
+            s,
+            "</tbody></table>\n<p>{}.</p>",
+            escape(CORRELATION_METHOD)
+        );
+    }
+    let influence = influence_method(h);
+    s.push_str("<h2>Method</h2>\n<ul>\n");
     for line in [
         "Each sample is checked like <code>check</code>: the same modes (re-solved only when a \
          sample changes mass, geometry or springs; otherwise the case's modes with frequencies \
@@ -467,7 +519,7 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
         "Sample i draws from a counter-based stream of (seed, i), so any shard or thread count \
          gives the same samples; statistics are exact integer counts and sums, merged exactly.",
         PERCENTILE_METHOD,
-        INFLUENCE_METHOD,
+        influence.as_str(),
         "Standard error of a probability p from N samples: sqrt(p (1 - p) / N).",
         "Tip amplitude and stress are 0 in samples screened out by E.1.2 (v_crit &gt; 1.25 v_m).",
     ] {

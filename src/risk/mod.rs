@@ -16,11 +16,15 @@
 //!   the event indicator; a rank (Spearman-type) correlation with the population ranks,
 //!   mergeable because it needs only the exact sum of U over the samples with the event.
 //!   Its standard error is about (1 - r^2) / sqrt(N) (Fisher's large-sample result for a
-//!   correlation coefficient; common practice).
+//!   correlation coefficient; common practice). With rank-correlated inputs
+//!   ([`correlation`], a Gaussian copula) U is the input's rank after the copula, and the
+//!   influence measures total association with the event (including that of the inputs
+//!   correlated with it), not a unique contribution.
 //!
 //! Pure: no file access (the caller supplies the full re-analysis).
 //! Units: sampled values in the case file's units (the key names them); results SI.
 
+pub mod correlation;
 pub mod distribution;
 pub mod kernel;
 pub mod rng;
@@ -125,6 +129,8 @@ pub struct Engine<'a> {
     pub stages: usize,
     /// Whether every key keeps the modes and the kernel covers the governing method.
     pub shortcut: bool,
+    /// Rank correlations between the inputs (identity when none; see [`correlation`]).
+    pub copula: correlation::Copula,
     /// The full analysis of a sample: the sampled values of every input (risk-only keys
     /// included, the function ignores them) -> validated case, or the message why not.
     pub full: &'a (dyn Fn(&[f64]) -> Result<Case, String> + Sync),
@@ -169,8 +175,16 @@ impl<'a> Engine<'a> {
             kernels,
             stages: case.stages.len(),
             shortcut,
+            copula: correlation::Copula::default(),
             full,
         })
+    }
+
+    /// The same engine with the inputs' rank correlations (a correlation changes no mode,
+    /// so the shortcut stays valid).
+    pub fn with_copula(mut self, copula: correlation::Copula) -> Self {
+        self.copula = copula;
+        self
     }
 
     /// Number of (stage, mode) pairs.
@@ -178,10 +192,14 @@ impl<'a> Engine<'a> {
         self.kernels.len()
     }
 
-    /// The uniforms' integer bits and sampled values of sample `index`.
+    /// The uniforms' integer bits (after the rank correlations: each is the input's
+    /// population rank F(X)) and sampled values of sample `index`.
     pub fn draw(&self, index: u64, bits: &mut [u64], values: &mut [f64]) {
+        for (j, b) in bits.iter_mut().enumerate().take(self.inputs.len()) {
+            *b = rng::draw_bits(self.seed, index, j as u64);
+        }
+        self.copula.apply(bits);
         for (j, inp) in self.inputs.iter().enumerate() {
-            bits[j] = rng::draw_bits(self.seed, index, j as u64);
             values[j] = inp.distribution.sample(rng::bits_to_uniform(bits[j]));
         }
     }
@@ -531,6 +549,9 @@ pub struct RiskHeader {
     pub modes: Vec<ModeInfo>,
     /// Stage index of each mode entry.
     pub stage_of: Vec<usize>,
+    /// Rank correlations between the inputs (empty: independent).
+    #[serde(default)]
+    pub correlations: Vec<correlation::CorrelationInfo>,
 }
 
 /// A shard's result.
