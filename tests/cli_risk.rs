@@ -1,6 +1,6 @@
 //! `risk` and `risk-merge` through the binary: 1, 3 and 8 shards, each run as its own
 //! process and merged, give byte-identical files to the unsharded run (fast keys, and a
-//! re-solved key with --keep-samples); hostile inputs exit 2 with a message naming the
+//! re-solved key with --keep-samples, rank-correlated fast keys); hostile inputs exit 2 with a message naming the
 //! problem. No outside reference is involved: the checks are of the project's own contract
 //! (design.md: sharding and merge, exit codes).
 
@@ -35,6 +35,17 @@ distribution = "gumbel"
 mean = 24.0
 cov = 0.12
 truncate_high = 60.0
+"#;
+
+/// FAST with rank correlations (Gaussian copula): still per sample, so still shardable.
+const FAST_CORRELATIONS: &str = r#"
+[[rank_correlation]]
+keys = ["vortex.log_decrement", "vortex.strouhal"]
+coefficient = -0.3
+
+[[rank_correlation]]
+keys = ["wind.reference_speed_m_s", "vortex.strouhal"]
+coefficient = 0.5
 "#;
 
 const RESOLVE: &str = r#"
@@ -139,6 +150,11 @@ fn shards_merge_to_the_single_run(extra: &str, samples: &str, keep: bool) {
 #[test]
 fn shards_of_fast_samples_merge_to_the_single_run() {
     shards_merge_to_the_single_run(FAST, "20000", false);
+}
+
+#[test]
+fn shards_of_rank_correlated_samples_merge_to_the_single_run() {
+    shards_merge_to_the_single_run(&format!("{FAST}\n{FAST_CORRELATIONS}"), "20000", true);
 }
 
 #[test]
