@@ -220,7 +220,7 @@ mod tests {
         let c = Copula::new(&pairs).unwrap();
         assert_eq!(c.members, vec![0, 2, 3]);
         let m = 3;
-        let mut llt = vec![0.0; 9];
+        let mut llt = [0.0; 9];
         for i in 0..m {
             for j in 0..m {
                 llt[i * m + j] = (0..m)
