@@ -42,6 +42,8 @@ pub struct RiskOptions {
     pub keep_samples: bool,
     /// (K, N), 1 <= K <= N.
     pub shard: Option<(u64, u64)>,
+    /// Also sample the resistance quantities (`--with-resistance`).
+    pub with_resistance: bool,
 }
 
 /// Parses `K/N`.
@@ -276,6 +278,13 @@ pub fn run(case_path: &Path, o: &RiskOptions, out_dir: &Path) -> Result<CommandR
             risk::RiskError::Wind(w) => Error::Wind(w),
         })?
         .with_copula(correlations.copula.clone());
+    let engine = if o.with_resistance {
+        engine
+            .with_resistance()
+            .map_err(|e| usage("--with-resistance", "on", e.to_string()))?
+    } else {
+        engine
+    };
     let mut header = header(&case, &engine, o)?;
     header.correlations = correlations.info.clone();
     let (k, n) = o.shard.unwrap_or((1, 1));
@@ -416,6 +425,7 @@ fn header(case: &crate::case::Case, engine: &Engine, o: &RiskOptions) -> Result<
         stage_of: engine.kernels.iter().map(|k| k.stage_index).collect(),
         modes,
         correlations: Vec::new(),
+        resistance: engine.resistance.is_some(),
     })
 }
 

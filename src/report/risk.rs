@@ -18,7 +18,10 @@ use super::note::html_escape as escape;
 use super::ReportError;
 use crate::risk::kernel::ModeSample;
 use crate::risk::stats::RELATIVE_ACCURACY;
-use crate::risk::{Accumulator, Partial, RiskHeader, MODE_EVENTS, QUANTITIES};
+use crate::risk::{
+    resistance_event, resistance_quantity, Accumulator, Partial, RiskHeader, MODE_EVENTS,
+    QUANTITIES, RESISTANCE_QUANTITIES,
+};
 
 pub use super::risk_plots::{histograms_svg, influence_svg};
 
@@ -77,6 +80,29 @@ pub fn rows(h: &RiskHeader, a: &Accumulator) -> Vec<RiskRow> {
                 standard_error: se,
                 event,
             });
+        }
+        if h.resistance {
+            // EN 1992-1-1: P(utilisation > 1), P(damage > 1) on the quantity rows, as the
+            // tip and stress criteria are on theirs.
+            let modes = h.modes.len();
+            for (q, name) in RESISTANCE_QUANTITIES.iter().enumerate() {
+                let i = resistance_quantity(modes, j, q);
+                let sk = &a.sketches[i];
+                let event = resistance_event(modes, h.stages.len(), j, q);
+                let (p, se) = prob(event);
+                out.push(RiskRow {
+                    stage: m.stage.clone(),
+                    mode: m.mode.to_string(),
+                    quantity: name.to_string(),
+                    mean: (sk.total > 0).then(|| a.mean_at(i)),
+                    p05: sk.quantile(0.05),
+                    p50: sk.quantile(0.50),
+                    p95: sk.quantile(0.95),
+                    probability_exceeding: p,
+                    standard_error: se,
+                    event: Some(event),
+                });
+            }
         }
         for (e, name) in MODE_EVENTS.iter().enumerate() {
             if (e == 0) || (e == 3 && h.judged) {
@@ -350,10 +376,13 @@ pub fn samples_header(h: &RiskHeader) -> Vec<u8> {
         "scruton",
         "tip_amplitude_m",
         "max_stress_pa",
-        "verdict",
     ] {
         rec.push(c.into());
     }
+    if h.resistance {
+        rec.extend(RESISTANCE_QUANTITIES.iter().map(|c| c.to_string()));
+    }
+    rec.push("verdict".into());
     let _ = w.write_record(&rec);
     w.into_inner().unwrap_or_default()
 }
@@ -367,6 +396,7 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
         .map(|m| (safe_text(&m.stage), m.mode.to_string()))
         .collect();
     let judged = h.judged;
+    let resistance = h.resistance;
     Box::new(
         move |i: u64, values: &[f64], res: Option<&[ModeSample]>, out: &mut Vec<u8>| {
             let mut w = ::csv::WriterBuilder::new().from_writer(Vec::new());
@@ -375,7 +405,8 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
                 None => {
                     let mut rec = vec![i.to_string()];
                     rec.extend(keys.iter().cloned());
-                    rec.extend(std::iter::repeat_n(String::new(), 7));
+                    let blanks = 7 + if resistance { 2 } else { 0 };
+                    rec.extend(std::iter::repeat_n(String::new(), blanks));
                     rec.push("invalid".into());
                     let _ = w.write_record(&rec);
                 }
@@ -400,8 +431,11 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
                             num(s.scruton),
                             num(s.tip_amplitude_m),
                             num(s.max_stress_pa),
-                            verdict.into(),
                         ]);
+                        if resistance {
+                            rec.extend([num(s.vortex_utilisation), num(s.fatigue_damage)]);
+                        }
+                        rec.push(verdict.into());
                         let _ = w.write_record(&rec);
                     }
                 }
