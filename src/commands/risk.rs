@@ -1,12 +1,16 @@
 //! `risk` and `risk-merge`: probabilistic screening over the case's `[[uncertain]]` inputs.
 //!
-//! `risk CASE --samples N [--seed S] [--out DIR] [--keep-samples] [--shard K/N]` runs the
-//! samples (all of them, or the K-th of N deterministic slices) on all cores with a progress
-//! bar on a terminal. Unsharded it writes risk.csv, summary.json, risk.html and its plots
-//! (and risk_samples.csv with --keep-samples); a shard writes `risk_partial.json` (the
-//! case's SHA-256, the settings and the exact statistics of its slice) and, with
-//! --keep-samples, its rows of risk_samples.csv. `risk-merge DIR... [--out DIR]` combines
+//! `risk CASE --samples N [--seed S] [--out DIR] [--keep-samples] [--shard K/N]
+//! [--with-resistance]` runs the samples (all of them, or the K-th of N deterministic
+//! slices) on all cores with a progress bar on a terminal. Unsharded it writes risk.csv,
+//! summary.json, risk.html and its plots (and risk_samples.csv with --keep-samples); a
+//! shard writes `risk_partial.json` (the case's SHA-256, the settings and the exact
+//! statistics of its slice) and, with --keep-samples, its rows of risk_samples.csv. `risk-merge DIR... [--out DIR]` combines
 //! the shards of one run into exactly the files of the unsharded run.
+//!
+//! `[[rank_correlation]]` pairs are read after the keys (a Gaussian copula, see
+//! [`crate::risk::correlation`]); `--with-resistance` adds each mode's vortex utilisation
+//! and fatigue damage (needs `[reinforcement]`).
 //!
 //! Keys are checked with the sweep's rules before any work; a distribution whose range
 //! reaches a value the case-file rules refuse (for keys that keep the modes) is refused with

@@ -280,6 +280,15 @@ pub const INFLUENCE_METHOD: &str = "rank correlation between each input's popula
      U = F(X) and the event indicator, using the population moments of U (mean 1/2, \
      variance 1/12); standard error about (1 - r^2) / sqrt(N)";
 
+/// How the resistance quantities are sampled (note).
+pub const RESISTANCE_METHOD: &str = "Resistance (--with-resistance): per stage and mode \
+     vortex_utilisation = max over the height of gamma_Q M_vortex / M_Rd(N_Ed) (EN 1992-1-1 \
+     6.1, the vortex action of check) and fatigue_damage = the mode's Miner sum of the \
+     vertical bars at its worst height (EN 1992-1-1 6.8.4, Table 6.3N, cracked-section bar \
+     stress range with the sample's concrete E); probability_exceeding of each is P(> 1), \
+     and either counts in the mode's exceeds. Samples that keep the modes scale the case's \
+     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged)";
+
 /// How correlated inputs are sampled (note and summary.json).
 pub const CORRELATION_METHOD: &str = "Gaussian copula: each sample's independent uniforms of \
      the correlated inputs become standard normals, are correlated with the Cholesky factor of \
@@ -545,6 +554,9 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
     }
     let influence = influence_method(h);
     s.push_str("<h2>Method</h2>\n<ul>\n");
+    if h.resistance {
+        let _ = writeln!(s, "<li>{}</li>", escape(RESISTANCE_METHOD));
+    }
     for line in [
         "Each sample is checked like <code>check</code>: the same modes (re-solved only when a \
          sample changes mass, geometry or springs; otherwise the case's modes with frequencies \

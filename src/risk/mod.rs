@@ -21,6 +21,9 @@
 //!   influence measures total association with the event (including that of the inputs
 //!   correlated with it), not a unique contribution.
 //!
+//! - Resistance (opt-in, [`resistance_kernel`]): each mode's vortex utilisation and fatigue
+//!   damage, exact in the shortcut path (moment curves scaled, M_Rd unchanged).
+//!
 //! Pure: no file access (the caller supplies the full re-analysis).
 //! Units: sampled values in the case file's units (the key names them); results SI.
 
@@ -349,8 +352,8 @@ fn add_resistance(
     Ok(())
 }
 
-/// Per-(stage, mode) quantities, in risk.csv order. More (utilisation, fatigue damage)
-/// are added here when the resistance part provides them.
+/// Per-(stage, mode) quantities, in risk.csv order (with `--with-resistance` the
+/// [`RESISTANCE_QUANTITIES`] follow each mode's).
 pub const QUANTITIES: [&str; 5] = [
     "frequency_hz",
     "critical_speed_m_s",
