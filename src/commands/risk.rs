@@ -5,8 +5,9 @@
 //! slices) on all cores with a progress bar on a terminal. Unsharded it writes risk.csv,
 //! summary.json, risk.html and its plots (and risk_samples.csv with --keep-samples); a
 //! shard writes `risk_partial.json` (the case's SHA-256, the settings and the exact
-//! statistics of its slice) and, with --keep-samples, its rows of risk_samples.csv. `risk-merge DIR... [--out DIR]` combines
-//! the shards of one run into exactly the files of the unsharded run.
+//! statistics of its slice) and, with --keep-samples, its rows of risk_samples.csv.
+//! `risk-merge DIR... [--out DIR]` combines the shards of one run into exactly the files of
+//! the unsharded run.
 //!
 //! `[[rank_correlation]]` pairs are read after the keys (a Gaussian copula, see
 //! [`crate::risk::correlation`]); `--with-resistance` adds each mode's vortex utilisation
