@@ -149,7 +149,8 @@ fn main() {
             s,
             s * 1e6 / row.samples as f64,
             cpu,
-            row.target_s.map_or("-".to_string(), |t| format!("{t:.0} s"))
+            row.target_s
+                .map_or("-".to_string(), |t| format!("{t:.0} s"))
         );
     }
     println!(

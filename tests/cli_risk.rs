@@ -195,15 +195,17 @@ fn resistance_quantities_are_in_the_outputs_and_need_reinforcement() {
     let csv = std::fs::read_to_string(plain.join("risk.csv")).unwrap();
     assert!(!csv.contains("vortex_utilisation"));
     // Without [reinforcement]: refused, nothing written.
-    let mut t = stackwake::input::parse_case_text(stackwake::input::DEMO_CASE_TOML, "demo")
-        .unwrap();
+    let mut t =
+        stackwake::input::parse_case_text(stackwake::input::DEMO_CASE_TOML, "demo").unwrap();
     t.remove("reinforcement");
     let bare = dir.path().join("bare.toml");
     std::fs::write(&bare, format!("{}\n{FAST}", toml::to_string(&t).unwrap())).unwrap();
     let none = dir.path().join("none");
     risk(&bare, &["--samples", "10", "--with-resistance"], &none)
         .code(2)
-        .stderr(predicate::str::contains("--with-resistance = on: the case has no [reinforcement]"));
+        .stderr(predicate::str::contains(
+            "--with-resistance = on: the case has no [reinforcement]",
+        ));
     assert!(!none.exists());
 }
 

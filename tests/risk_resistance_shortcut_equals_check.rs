@@ -159,3 +159,68 @@ fn resistance_needs_reinforcement() {
     let err = e.with_resistance().err().unwrap().to_string();
     assert!(err.contains("[reinforcement]"), "{err}");
 }
+
+#[test]
+fn re_solved_samples_give_the_full_check_resistance() {
+    // A lining-mass key re-solves every sample: the engine edits, validates and re-solves
+    // the case, then evaluates the resistance quantities of the edited case itself.
+    let t = table("en1991-e1");
+    let base = input::parse_case_table(t.clone(), Path::new(""), "demo").unwrap();
+    let keys = [
+        ("lining[0].mass_per_area_kg_m2", 240.0),
+        ("vortex.log_decrement", 0.03),
+    ];
+    let inputs: Vec<UncertainInput> = keys
+        .iter()
+        .map(|&(k, v)| UncertainInput {
+            key: k.into(),
+            role: role_of(k, true),
+            distribution: Distribution::uniform(v, v),
+            described: String::new(),
+            case_value: v,
+        })
+        .collect();
+    let edit = |values: &[f64]| -> Case {
+        let mut t = t.clone();
+        for ((k, _), v) in keys.iter().zip(values) {
+            keypath::insert_number(&mut t, k, *v).unwrap();
+        }
+        input::parse_case_table(t, Path::new(""), "demo").unwrap()
+    };
+    let full = |values: &[f64]| -> Result<Case, String> { Ok(edit(values)) };
+    let e = Engine::new(&base, &inputs, 1, &full)
+        .unwrap()
+        .with_resistance()
+        .unwrap();
+    assert!(!e.shortcut);
+    for values in [[200.0, 0.02], [280.0, 0.012]] {
+        let mut out = vec![ModeSample::default(); e.modes()];
+        let mut msg = None;
+        assert!(e.evaluate(&values, &mut out, &mut msg), "{msg:?}");
+        let want = full_check(&edit(&values));
+        let mut nonzero = 0;
+        for (o, (u, d)) in out.iter().zip(&want) {
+            assert!(
+                close(o.vortex_utilisation, *u, 1e-9),
+                "{} vs {u}",
+                o.vortex_utilisation
+            );
+            assert!(
+                close(o.fatigue_damage, *d, 1e-9),
+                "{} vs {d}",
+                o.fatigue_damage
+            );
+            nonzero += usize::from(*d > 0.0);
+        }
+        assert!(nonzero > 0);
+    }
+}
+
+#[test]
+fn the_gb_method_has_no_resistance_path() {
+    let t = table("gb50009-h1");
+    let case = input::parse_case_table(t, Path::new(""), "demo").unwrap();
+    let e = Engine::new(&case, &[], 1, &no_full).unwrap();
+    let err = e.with_resistance().err().unwrap().to_string();
+    assert!(err.contains("gb50009-h1"), "{err}");
+}
