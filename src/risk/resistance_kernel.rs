@@ -133,7 +133,7 @@ fn stage_nodes(
             self_weight_n: nd.self_weight_n,
             section: CrackedSection {
                 annulus: annulus_at(spec, model, i),
-                concrete_modulus_pa: concrete_modulus_pa,
+                concrete_modulus_pa,
                 steel_modulus_pa: spec.steel_modulus_pa,
             },
         })
