@@ -6,7 +6,9 @@
 //! foundation stiffness uncertain too in under 30 s.
 //!
 //! With the demo's base springs E does not scale the whole stiffness matrix, so E samples
-//! re-solve there; the E shortcut row uses the demo with a fixed base.
+//! re-solve there; the E shortcut row uses the demo with a fixed base. The last row measures
+//! the opt-in resistance quantities (`--with-resistance`: a cracked-section solve per height
+//! and mode in lock-in), which have no target.
 
 use std::path::Path;
 use std::time::Instant;
@@ -30,8 +32,11 @@ fn cpu_seconds() -> f64 {
 struct Row {
     label: &'static str,
     samples: u64,
-    target_s: f64,
+    /// Issue 17's target, seconds (`None`: no target, a measurement).
+    target_s: Option<f64>,
     springs: bool,
+    /// `--with-resistance`: utilisation and fatigue damage per sample.
+    resistance: bool,
     keys: Vec<(&'static str, Family, f64, f64)>,
 }
 
@@ -56,23 +61,34 @@ fn main() {
         Row {
             label: "demo, fixed base: E, damping, St, c_lat",
             samples: 1_000_000,
-            target_s: 10.0,
+            target_s: Some(10.0),
             springs: false,
+            resistance: false,
             keys: with_e.clone(),
         },
         Row {
             label: "demo (springs): damping, St, c_lat",
             samples: 1_000_000,
-            target_s: 10.0,
+            target_s: Some(10.0),
             springs: true,
+            resistance: false,
             keys: fast.clone(),
         },
         Row {
             label: "demo (springs): E, damping, St, c_lat, lining, rocking spring",
             samples: 100_000,
-            target_s: 30.0,
+            target_s: Some(30.0),
             springs: true,
+            resistance: false,
             keys: resolve,
+        },
+        Row {
+            label: "demo, fixed base: E, damping, St, c_lat, --with-resistance",
+            samples: 8_192,
+            target_s: None,
+            springs: false,
+            resistance: true,
+            keys: with_e.clone(),
         },
     ];
     println!(
@@ -111,7 +127,10 @@ fn main() {
             }
             parse_case_table(t, Path::new(""), "demo").map_err(|e| e.to_string())
         };
-        let engine = Engine::new(&case, &inputs, 1, &full).unwrap();
+        let mut engine = Engine::new(&case, &inputs, 1, &full).unwrap();
+        if row.resistance {
+            engine = engine.with_resistance().unwrap();
+        }
         let c0 = cpu_seconds();
         let t = Instant::now();
         let (acc, _) = run_range(&engine, 0, row.samples, None, &|_| {});
@@ -119,7 +138,7 @@ fn main() {
         let cpu = (cpu_seconds() - c0) / rayon::current_num_threads() as f64;
         assert_eq!(acc.samples + acc.invalid, row.samples);
         println!(
-            "{:<64} {:>10} {:>10} {:>9.2} {:>12.2} {:>14.2} {:>6.0} s",
+            "{:<64} {:>10} {:>10} {:>9.2} {:>12.2} {:>14.2} {:>8}",
             row.label,
             row.samples,
             if engine.shortcut {
@@ -131,6 +150,7 @@ fn main() {
             s * 1e6 / row.samples as f64,
             cpu,
             row.target_s
+                .map_or("-".to_string(), |t| format!("{t:.0} s"))
         );
     }
     println!(

@@ -76,6 +76,10 @@ enum Command {
         /// (combine with `risk-merge`).
         #[arg(long, value_name = "K/N")]
         shard: Option<String>,
+        /// Also sample each mode's vortex utilisation M_Ed / M_Rd and fatigue damage of the
+        /// bars (needs [reinforcement]; slower: a cracked-section solve per height).
+        #[arg(long)]
+        with_resistance: bool,
     },
     /// Combine the partial results of `risk --shard K/N` (one folder per shard) into the
     /// outputs of the unsharded run.
@@ -178,6 +182,7 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
             out,
             keep_samples,
             shard,
+            with_resistance,
         } => {
             let shard = shard
                 .as_deref()
@@ -190,6 +195,7 @@ fn run(cli: Cli) -> anyhow::Result<CommandReport> {
                     seed,
                     keep_samples,
                     shard,
+                    with_resistance,
                 },
                 &out,
             )?)

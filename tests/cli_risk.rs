@@ -1,6 +1,6 @@
 //! `risk` and `risk-merge` through the binary: 1, 3 and 8 shards, each run as its own
 //! process and merged, give byte-identical files to the unsharded run (fast keys, and a
-//! re-solved key with --keep-samples); hostile inputs exit 2 with a message naming the
+//! re-solved key with --keep-samples, rank-correlated fast keys); hostile inputs exit 2 with a message naming the
 //! problem. No outside reference is involved: the checks are of the project's own contract
 //! (design.md: sharding and merge, exit codes).
 
@@ -35,6 +35,17 @@ distribution = "gumbel"
 mean = 24.0
 cov = 0.12
 truncate_high = 60.0
+"#;
+
+/// FAST with rank correlations (Gaussian copula): still per sample, so still shardable.
+const FAST_CORRELATIONS: &str = r#"
+[[rank_correlation]]
+keys = ["vortex.log_decrement", "vortex.strouhal"]
+coefficient = -0.3
+
+[[rank_correlation]]
+keys = ["wind.reference_speed_m_s", "vortex.strouhal"]
+coefficient = 0.5
 "#;
 
 const RESOLVE: &str = r#"
@@ -91,12 +102,17 @@ fn files(dir: &Path) -> Vec<(String, Vec<u8>)> {
 }
 
 fn shards_merge_to_the_single_run(extra: &str, samples: &str, keep: bool) {
+    shards_merge_with(extra, samples, keep, &[]);
+}
+
+fn shards_merge_with(extra: &str, samples: &str, keep: bool, flags: &[&str]) {
     let dir = tempfile::tempdir().unwrap();
     let case = case_with(dir.path(), "case.toml", extra);
     let mut common = vec!["--samples", samples, "--seed", "42"];
     if keep {
         common.push("--keep-samples");
     }
+    common.extend_from_slice(flags);
     let single = dir.path().join("single");
     risk(&case, &common, &single).success();
     let want = files(&single);
@@ -139,6 +155,58 @@ fn shards_merge_to_the_single_run(extra: &str, samples: &str, keep: bool) {
 #[test]
 fn shards_of_fast_samples_merge_to_the_single_run() {
     shards_merge_to_the_single_run(FAST, "20000", false);
+}
+
+#[test]
+fn shards_of_rank_correlated_samples_merge_to_the_single_run() {
+    shards_merge_to_the_single_run(&format!("{FAST}\n{FAST_CORRELATIONS}"), "20000", true);
+}
+
+#[test]
+fn shards_with_resistance_quantities_merge_to_the_single_run() {
+    shards_merge_with(FAST, "240", true, &["--with-resistance"]);
+}
+
+#[test]
+fn resistance_quantities_are_in_the_outputs_and_need_reinforcement() {
+    let dir = tempfile::tempdir().unwrap();
+    let case = case_with(dir.path(), "case.toml", FAST);
+    let out = dir.path().join("out");
+    risk(
+        &case,
+        &["--samples", "64", "--with-resistance", "--keep-samples"],
+        &out,
+    )
+    .success();
+    let csv = std::fs::read_to_string(out.join("risk.csv")).unwrap();
+    assert!(csv.contains("shell only,1,vortex_utilisation,"), "{csv}");
+    assert!(csv.contains("lined,1,fatigue_damage,"), "{csv}");
+    let samples = std::fs::read_to_string(out.join("risk_samples.csv")).unwrap();
+    assert!(samples
+        .lines()
+        .next()
+        .unwrap()
+        .ends_with("max_stress_pa,vortex_utilisation,fatigue_damage,verdict"));
+    let note = std::fs::read_to_string(out.join("risk.html")).unwrap();
+    assert!(note.contains("vortex_utilisation") && note.contains("EN 1992-1-1"));
+    // Without the flag: no resistance rows.
+    let plain = dir.path().join("plain");
+    risk(&case, &["--samples", "64"], &plain).success();
+    let csv = std::fs::read_to_string(plain.join("risk.csv")).unwrap();
+    assert!(!csv.contains("vortex_utilisation"));
+    // Without [reinforcement]: refused, nothing written.
+    let mut t =
+        stackwake::input::parse_case_text(stackwake::input::DEMO_CASE_TOML, "demo").unwrap();
+    t.remove("reinforcement");
+    let bare = dir.path().join("bare.toml");
+    std::fs::write(&bare, format!("{}\n{FAST}", toml::to_string(&t).unwrap())).unwrap();
+    let none = dir.path().join("none");
+    risk(&bare, &["--samples", "10", "--with-resistance"], &none)
+        .code(2)
+        .stderr(predicate::str::contains(
+            "--with-resistance = on: the case has no [reinforcement]",
+        ));
+    assert!(!none.exists());
 }
 
 #[test]

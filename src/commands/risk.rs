@@ -1,12 +1,17 @@
 //! `risk` and `risk-merge`: probabilistic screening over the case's `[[uncertain]]` inputs.
 //!
-//! `risk CASE --samples N [--seed S] [--out DIR] [--keep-samples] [--shard K/N]` runs the
-//! samples (all of them, or the K-th of N deterministic slices) on all cores with a progress
-//! bar on a terminal. Unsharded it writes risk.csv, summary.json, risk.html and its plots
-//! (and risk_samples.csv with --keep-samples); a shard writes `risk_partial.json` (the
-//! case's SHA-256, the settings and the exact statistics of its slice) and, with
-//! --keep-samples, its rows of risk_samples.csv. `risk-merge DIR... [--out DIR]` combines
-//! the shards of one run into exactly the files of the unsharded run.
+//! `risk CASE --samples N [--seed S] [--out DIR] [--keep-samples] [--shard K/N]
+//! [--with-resistance]` runs the samples (all of them, or the K-th of N deterministic
+//! slices) on all cores with a progress bar on a terminal. Unsharded it writes risk.csv,
+//! summary.json, risk.html and its plots (and risk_samples.csv with --keep-samples); a
+//! shard writes `risk_partial.json` (the case's SHA-256, the settings and the exact
+//! statistics of its slice) and, with --keep-samples, its rows of risk_samples.csv.
+//! `risk-merge DIR... [--out DIR]` combines the shards of one run into exactly the files of
+//! the unsharded run.
+//!
+//! `[[rank_correlation]]` pairs are read after the keys (a Gaussian copula, see
+//! [`crate::risk::correlation`]); `--with-resistance` adds each mode's vortex utilisation
+//! and fatigue damage (needs `[reinforcement]`).
 //!
 //! Keys are checked with the sweep's rules before any work; a distribution whose range
 //! reaches a value the case-file rules refuse (for keys that keep the modes) is refused with
@@ -17,7 +22,7 @@ use std::path::{Path, PathBuf};
 use indicatif::{ProgressBar, ProgressStyle};
 
 use crate::error::Error;
-use crate::input::{self, keypath, uncertain};
+use crate::input::{self, keypath, rank_correlation, uncertain};
 use crate::report::risk as out;
 use crate::report::staging::Staging;
 use crate::risk::run::{run_range, RowWriter};
@@ -42,6 +47,8 @@ pub struct RiskOptions {
     pub keep_samples: bool,
     /// (K, N), 1 <= K <= N.
     pub shard: Option<(u64, u64)>,
+    /// Also sample the resistance quantities (`--with-resistance`).
+    pub with_resistance: bool,
 }
 
 /// Parses `K/N`.
@@ -249,6 +256,8 @@ pub fn run(case_path: &Path, o: &RiskOptions, out_dir: &Path) -> Result<CommandR
     let base_dir = case_path.parent().unwrap_or_else(|| Path::new(""));
     let entries = uncertain::read(&table).map_err(|issues| invalid(&label, issues))?;
     let inputs = inputs_of(&table, base_dir, &label, &entries)?;
+    let correlations =
+        rank_correlation::read(&table, &entries).map_err(|issues| invalid(&label, issues))?;
     crate::wind::site_wind(&case, "risk")?;
 
     let full = |values: &[f64]| -> Result<crate::case::Case, String> {
@@ -268,11 +277,21 @@ pub fn run(case_path: &Path, o: &RiskOptions, out_dir: &Path) -> Result<CommandR
         })
     };
     let mut staging = Staging::begin(out_dir)?;
-    let engine = Engine::new(&case, &inputs, o.seed, &full).map_err(|e| match e {
-        risk::RiskError::Modal(m) => Error::Modal(m),
-        risk::RiskError::Wind(w) => Error::Wind(w),
-    })?;
-    let header = header(&case, &engine, o)?;
+    let engine = Engine::new(&case, &inputs, o.seed, &full)
+        .map_err(|e| match e {
+            risk::RiskError::Modal(m) => Error::Modal(m),
+            risk::RiskError::Wind(w) => Error::Wind(w),
+        })?
+        .with_copula(correlations.copula.clone());
+    let engine = if o.with_resistance {
+        engine
+            .with_resistance()
+            .map_err(|e| usage("--with-resistance", "on", e.to_string()))?
+    } else {
+        engine
+    };
+    let mut header = header(&case, &engine, o)?;
+    header.correlations = correlations.info.clone();
     let (k, n) = o.shard.unwrap_or((1, 1));
     let (from, to) = risk::shard_range(o.samples, k, n);
 
@@ -325,9 +344,11 @@ pub fn run(case_path: &Path, o: &RiskOptions, out_dir: &Path) -> Result<CommandR
         stdout.push_str(&out::stdout_summary(&header, &acc));
     }
     let files = staging.commit()?;
+    let mut warn = correlations.warnings.clone();
+    warn.extend(warnings(&header, &acc));
     Ok(CommandReport {
         stdout,
-        warnings: warnings(&header, &acc),
+        warnings: warn,
         check_failed: false,
         not_judged: false,
         files,
@@ -408,6 +429,8 @@ fn header(case: &crate::case::Case, engine: &Engine, o: &RiskOptions) -> Result<
         stages: case.stages.iter().map(|s| s.name.clone()).collect(),
         stage_of: engine.kernels.iter().map(|k| k.stage_index).collect(),
         modes,
+        correlations: Vec::new(),
+        resistance: engine.resistance.is_some(),
     })
 }
 

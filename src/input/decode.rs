@@ -75,8 +75,10 @@ pub fn decode_case(mut table: Table) -> Result<RawCase, Vec<ValidationIssue>> {
     let reinforcement =
         decode_optional_table(table.remove("reinforcement"), "reinforcement", &mut issues);
     let design = decode_optional_table(table.remove("design"), "design", &mut issues);
-    // [[uncertain]] belongs to `risk` (read by `input::uncertain`); other commands ignore it.
+    // [[uncertain]] and [[rank_correlation]] belong to `risk` (read by `input::uncertain` and
+    // `input::rank_correlation`); other commands ignore them.
     table.remove("uncertain");
+    table.remove("rank_correlation");
 
     if !issues.is_empty() {
         return Err(issues);

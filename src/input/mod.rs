@@ -14,6 +14,7 @@ pub mod measured_csv;
 pub mod names;
 pub mod physical;
 pub mod plausibility;
+pub mod rank_correlation;
 pub mod raw;
 mod read;
 pub mod risk_partial;

@@ -60,6 +60,7 @@ pub const CASE_KEYS: &[&str] = &[
     "reinforcement",
     "design",
     "uncertain",
+    "rank_correlation",
 ];
 
 /// `[reinforcement]`: vertical bars of the shell (resistance issue).

@@ -44,8 +44,15 @@ pub fn read(path: &Path) -> Result<Partial, InputError> {
     }
     let modes = p.header.modes.len();
     let a = &p.accumulator;
-    let events = modes * crate::risk::MODE_EVENTS.len() + p.header.stages.len() + 1;
-    let consistent = a.sums.len() == modes * crate::risk::QUANTITIES.len()
+    let r = usize::from(p.header.resistance);
+    let events = modes * crate::risk::MODE_EVENTS.len()
+        + p.header.stages.len()
+        + 1
+        + r * modes * crate::risk::RESISTANCE_EVENTS.len();
+    let quantities =
+        modes * (crate::risk::QUANTITIES.len() + r * crate::risk::RESISTANCE_QUANTITIES.len());
+    let consistent = a.resistance == p.header.resistance
+        && a.sums.len() == quantities
         && a.sketches.len() == a.sums.len()
         && a.sums.iter().all(|s| s.is_well_formed())
         && a.sketches

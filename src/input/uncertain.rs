@@ -321,7 +321,14 @@ mod starter_tests {
                     .or_else(|| l.strip_prefix('#'))
                     .unwrap_or(l)
             })
-            .map(|l| format!("{l}\n"))
+            // Prose lines between the examples stay comments.
+            .map(|l| {
+                if l.trim().is_empty() || l.starts_with('[') || l.contains(" = ") {
+                    format!("{l}\n")
+                } else {
+                    format!("# {l}\n")
+                }
+            })
             .collect();
         let t: toml::Table = toml::from_str(&block).unwrap();
         let entries = super::read(&t).unwrap();
@@ -329,5 +336,9 @@ mod starter_tests {
         assert!(entries
             .iter()
             .any(|e| e.key == crate::risk::C_LAT_FACTOR_KEY));
+        // The commented [[rank_correlation]] example pairs two of those keys.
+        let rc = crate::input::rank_correlation::read(&t, &entries).unwrap();
+        assert_eq!(rc.pairs.len(), 1);
+        assert!(rc.warnings.is_empty());
     }
 }

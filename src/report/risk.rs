@@ -18,7 +18,10 @@ use super::note::html_escape as escape;
 use super::ReportError;
 use crate::risk::kernel::ModeSample;
 use crate::risk::stats::RELATIVE_ACCURACY;
-use crate::risk::{Accumulator, Partial, RiskHeader, MODE_EVENTS, QUANTITIES};
+use crate::risk::{
+    resistance_event, resistance_quantity, Accumulator, Partial, RiskHeader, MODE_EVENTS,
+    QUANTITIES, RESISTANCE_QUANTITIES,
+};
 
 pub use super::risk_plots::{histograms_svg, influence_svg};
 
@@ -77,6 +80,29 @@ pub fn rows(h: &RiskHeader, a: &Accumulator) -> Vec<RiskRow> {
                 standard_error: se,
                 event,
             });
+        }
+        if h.resistance {
+            // EN 1992-1-1: P(utilisation > 1), P(damage > 1) on the quantity rows, as the
+            // tip and stress criteria are on theirs.
+            let modes = h.modes.len();
+            for (q, name) in RESISTANCE_QUANTITIES.iter().enumerate() {
+                let i = resistance_quantity(modes, j, q);
+                let sk = &a.sketches[i];
+                let event = resistance_event(modes, h.stages.len(), j, q);
+                let (p, se) = prob(event);
+                out.push(RiskRow {
+                    stage: m.stage.clone(),
+                    mode: m.mode.to_string(),
+                    quantity: name.to_string(),
+                    mean: (sk.total > 0).then(|| a.mean_at(i)),
+                    p05: sk.quantile(0.05),
+                    p50: sk.quantile(0.50),
+                    p95: sk.quantile(0.95),
+                    probability_exceeding: p,
+                    standard_error: se,
+                    event: Some(event),
+                });
+            }
         }
         for (e, name) in MODE_EVENTS.iter().enumerate() {
             if (e == 0) || (e == 3 && h.judged) {
@@ -232,9 +258,11 @@ struct RiskJson<'a> {
     seed: u64,
     method: &'a str,
     inputs: &'a [crate::risk::InputInfo],
+    rank_correlations: &'a [crate::risk::correlation::CorrelationInfo],
+    correlation_method: &'static str,
     percentile_relative_accuracy: f64,
     percentile_method: &'static str,
-    influence_method: &'static str,
+    influence_method: String,
     rows: Vec<RowJson>,
     cautions: &'static [&'static str],
 }
@@ -251,6 +279,36 @@ pub const PERCENTILE_METHOD: &str = "logarithmic-bin quantile sketch (mergeable)
 pub const INFLUENCE_METHOD: &str = "rank correlation between each input's population rank \
      U = F(X) and the event indicator, using the population moments of U (mean 1/2, \
      variance 1/12); standard error about (1 - r^2) / sqrt(N)";
+
+/// How the resistance quantities are sampled (note).
+pub const RESISTANCE_METHOD: &str = "Resistance (--with-resistance): per stage and mode \
+     vortex_utilisation = max over the height of gamma_Q M_vortex / M_Rd(N_Ed) (EN 1992-1-1 \
+     6.1, the vortex action of check) and fatigue_damage = the mode's Miner sum of the \
+     vertical bars at its worst height (EN 1992-1-1 6.8.4, Table 6.3N, cracked-section bar \
+     stress range with the sample's concrete E); probability_exceeding of each is P(> 1), \
+     and either counts in the mode's exceeds. Samples that keep the modes scale the case's \
+     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged)";
+
+/// How correlated inputs are sampled (note and summary.json).
+pub const CORRELATION_METHOD: &str = "Gaussian copula: each sample's independent uniforms of \
+     the correlated inputs become standard normals, are correlated with the Cholesky factor of \
+     the normal-score matrix R_ij = 2 sin(pi rho_ij / 6) (Pearson 1907; the Spearman rank \
+     correlation of the copula is then exactly rho_ij) and mapped back through Phi and each \
+     input's own (truncated) quantile, so every marginal is unchanged";
+
+/// What the influence measures when inputs are correlated.
+pub const CORRELATED_INFLUENCE: &str = "With correlated inputs the influence of an input \
+     measures its total association with the event (its own effect plus that of the inputs \
+     correlated with it), not its unique contribution";
+
+/// The influence method as written for this run.
+pub fn influence_method(h: &RiskHeader) -> String {
+    if h.correlations.is_empty() {
+        INFLUENCE_METHOD.to_string()
+    } else {
+        format!("{INFLUENCE_METHOD}. {CORRELATED_INFLUENCE}")
+    }
+}
 
 /// summary.json bytes.
 pub fn summary_json(h: &RiskHeader, a: &Accumulator) -> Result<Vec<u8>, ReportError> {
@@ -285,9 +343,15 @@ pub fn summary_json(h: &RiskHeader, a: &Accumulator) -> Result<Vec<u8>, ReportEr
             seed: h.seed,
             method: &h.method,
             inputs: &h.inputs,
+            rank_correlations: &h.correlations,
+            correlation_method: if h.correlations.is_empty() {
+                "none: the inputs are sampled independently"
+            } else {
+                CORRELATION_METHOD
+            },
             percentile_relative_accuracy: RELATIVE_ACCURACY,
             percentile_method: PERCENTILE_METHOD,
-            influence_method: INFLUENCE_METHOD,
+            influence_method: influence_method(h),
             rows,
             cautions: super::CAUTIONS,
         },
@@ -321,10 +385,13 @@ pub fn samples_header(h: &RiskHeader) -> Vec<u8> {
         "scruton",
         "tip_amplitude_m",
         "max_stress_pa",
-        "verdict",
     ] {
         rec.push(c.into());
     }
+    if h.resistance {
+        rec.extend(RESISTANCE_QUANTITIES.iter().map(|c| c.to_string()));
+    }
+    rec.push("verdict".into());
     let _ = w.write_record(&rec);
     w.into_inner().unwrap_or_default()
 }
@@ -338,6 +405,7 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
         .map(|m| (safe_text(&m.stage), m.mode.to_string()))
         .collect();
     let judged = h.judged;
+    let resistance = h.resistance;
     Box::new(
         move |i: u64, values: &[f64], res: Option<&[ModeSample]>, out: &mut Vec<u8>| {
             let mut w = ::csv::WriterBuilder::new().from_writer(Vec::new());
@@ -346,7 +414,8 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
                 None => {
                     let mut rec = vec![i.to_string()];
                     rec.extend(keys.iter().cloned());
-                    rec.extend(std::iter::repeat_n(String::new(), 7));
+                    let blanks = 7 + if resistance { 2 } else { 0 };
+                    rec.extend(std::iter::repeat_n(String::new(), blanks));
                     rec.push("invalid".into());
                     let _ = w.write_record(&rec);
                 }
@@ -371,8 +440,11 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
                             num(s.scruton),
                             num(s.tip_amplitude_m),
                             num(s.max_stress_pa),
-                            verdict.into(),
                         ]);
+                        if resistance {
+                            rec.extend([num(s.vortex_utilisation), num(s.fatigue_damage)]);
+                        }
+                        rec.push(verdict.into());
                         let _ = w.write_record(&rec);
                     }
                 }
@@ -461,7 +533,33 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
             }
         );
     }
-    s.push_str("</tbody></table>\n<h2>Method</h2>\n<ul>\n");
+    s.push_str("</tbody></table>\n");
+    s.push_str("<h2>Rank correlations</h2>\n");
+    if h.correlations.is_empty() {
+        s.push_str("<p>None: the inputs are sampled independently.</p>\n");
+    } else {
+        s.push_str("<table><thead><tr><th>keys</th><th>Spearman rho_s</th><th>normal-score R = 2 sin(pi rho_s / 6)</th></tr></thead><tbody>\n");
+        for c in &h.correlations {
+            let _ = writeln!(
+                s,
+                "<tr><td>{} / {}</td><td class=\"n\">{}</td><td class=\"n\">{:.6}</td></tr>",
+                escape(&c.keys[0]),
+                escape(&c.keys[1]),
+                num(c.spearman),
+                c.normal_score_correlation
+            );
+        }
+        let _ = writeln!(
+            s,
+            "</tbody></table>\n<p>{}.</p>",
+            escape(CORRELATION_METHOD)
+        );
+    }
+    let influence = influence_method(h);
+    s.push_str("<h2>Method</h2>\n<ul>\n");
+    if h.resistance {
+        let _ = writeln!(s, "<li>{}</li>", escape(RESISTANCE_METHOD));
+    }
     for line in [
         "Each sample is checked like <code>check</code>: the same modes (re-solved only when a \
          sample changes mass, geometry or springs; otherwise the case's modes with frequencies \
@@ -470,7 +568,7 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
         "Sample i draws from a counter-based stream of (seed, i), so any shard or thread count \
          gives the same samples; statistics are exact integer counts and sums, merged exactly.",
         PERCENTILE_METHOD,
-        INFLUENCE_METHOD,
+        influence.as_str(),
         "Standard error of a probability p from N samples: sqrt(p (1 - p) / N).",
         "Tip amplitude and stress are 0 in samples screened out by E.1.2 (v_crit &gt; 1.25 v_m).",
     ] {

@@ -174,7 +174,12 @@ pub fn influence_svg(h: &RiskHeader, a: &Accumulator) -> String {
     );
     let _ = writeln!(
         s,
-        r#"<rect width="100%" height="100%" fill="white"/><text x="10" y="24" font-size="15" font-weight="bold">Influence of each input (rank correlation with the event; right: raises its probability)</text>"#
+        r#"<rect width="100%" height="100%" fill="white"/><text x="10" y="24" font-size="15" font-weight="bold">Influence of each input (rank correlation with the event; right: raises its probability{})</text>"#,
+        if h.correlations.is_empty() {
+            ""
+        } else {
+            "; correlated inputs: total, not unique, association"
+        }
     );
     let (left, bar_w) = (330.0, 260.0);
     let mid = left + bar_w;

@@ -138,7 +138,8 @@ pub fn sectors_at(openings: &[Opening], z_m: f64, outer_diameter_m: f64) -> Vec<
         .collect()
 }
 
-fn annulus_at(spec: &ResistanceSpec, model: &StageModel, i: usize) -> RcAnnulus {
+/// The RC annulus of node `i` of a stage: its zone's bars, its openings' sectors.
+pub fn annulus_at(spec: &ResistanceSpec, model: &StageModel, i: usize) -> RcAnnulus {
     let z = model.z_m[i];
     let zone = spec.zone_at(z);
     RcAnnulus::with_ratios(

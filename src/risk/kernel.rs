@@ -61,8 +61,18 @@ pub struct ModeSample {
     pub in_range: bool,
     pub tip_exceeds: bool,
     pub stress_exceeds: bool,
-    /// Verdict `exceeds` (any criterion).
+    /// Verdict `exceeds` (any criterion; with the resistance quantities also
+    /// utilisation > 1 or damage > 1).
     pub exceeds: bool,
+    /// Factor on the case's unit inertia moments: (n / n_case)^2 times the antinode
+    /// amplitude, m (0 when screened out). Used by the resistance quantities.
+    pub load_scale: f64,
+    /// max over the height of gamma_Q M_vortex / M_Rd (`--with-resistance`, else 0).
+    pub vortex_utilisation: f64,
+    /// The mode's fatigue damage of the vertical bars at its worst height (else 0).
+    pub fatigue_damage: f64,
+    pub utilisation_exceeds: bool,
+    pub damage_exceeds: bool,
 }
 
 /// Precomputed data of one stage and mode.
@@ -347,6 +357,7 @@ impl ModeKernel {
         out.tip_amplitude_m = y * self.tip_per_antinode;
         // Inertia loads m (2 pi n)^2 Phi y (E.1.4) scale with n^2, i.e. the stiffness scale.
         out.max_stress_pa = y * self.stress_per_m * s.stiffness_scale;
+        out.load_scale = y * s.stiffness_scale;
         judge(&self.criteria, self.top_diameter_m, &mut out);
         out
     }
@@ -385,6 +396,11 @@ pub fn from_check(m: &ModeVortex, criteria: &Criteria, top_diameter_m: f64) -> M
         out.stress_exceeds = out.exceeds;
         return out;
     }
+    // The governing approach's antinode amplitude: the factor on this case's unit moments.
+    out.load_scale = match m.governing {
+        VortexMethod::En1991E1 => m.approach1.as_ref().map_or(0.0, |a| a.y_max_m),
+        _ => m.approach2.as_ref().map_or(0.0, |a| a.y_max_m),
+    };
     judge(criteria, top_diameter_m, &mut out);
     out
 }

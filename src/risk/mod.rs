@@ -16,13 +16,21 @@
 //!   the event indicator; a rank (Spearman-type) correlation with the population ranks,
 //!   mergeable because it needs only the exact sum of U over the samples with the event.
 //!   Its standard error is about (1 - r^2) / sqrt(N) (Fisher's large-sample result for a
-//!   correlation coefficient; common practice).
+//!   correlation coefficient; common practice). With rank-correlated inputs
+//!   ([`correlation`], a Gaussian copula) U is the input's rank after the copula, and the
+//!   influence measures total association with the event (including that of the inputs
+//!   correlated with it), not a unique contribution.
+//!
+//! - Resistance (opt-in, [`resistance_kernel`]): each mode's vortex utilisation and fatigue
+//!   damage, exact in the shortcut path (moment curves scaled, M_Rd unchanged).
 //!
 //! Pure: no file access (the caller supplies the full re-analysis).
 //! Units: sampled values in the case file's units (the key names them); results SI.
 
+pub mod correlation;
 pub mod distribution;
 pub mod kernel;
+pub mod resistance_kernel;
 pub mod rng;
 pub mod run;
 pub mod stats;
@@ -125,6 +133,10 @@ pub struct Engine<'a> {
     pub stages: usize,
     /// Whether every key keeps the modes and the kernel covers the governing method.
     pub shortcut: bool,
+    /// Rank correlations between the inputs (identity when none; see [`correlation`]).
+    pub copula: correlation::Copula,
+    /// The resistance quantities per kernel (`--with-resistance`), else `None`.
+    pub resistance: Option<Vec<resistance_kernel::ResistanceKernel>>,
     /// The full analysis of a sample: the sampled values of every input (risk-only keys
     /// included, the function ignores them) -> validated case, or the message why not.
     pub full: &'a (dyn Fn(&[f64]) -> Result<Case, String> + Sync),
@@ -169,8 +181,34 @@ impl<'a> Engine<'a> {
             kernels,
             stages: case.stages.len(),
             shortcut,
+            copula: correlation::Copula::default(),
+            resistance: None,
             full,
         })
+    }
+
+    /// The same engine with the inputs' rank correlations (a correlation changes no mode,
+    /// so the shortcut stays valid).
+    pub fn with_copula(mut self, copula: correlation::Copula) -> Self {
+        self.copula = copula;
+        self
+    }
+
+    /// The same engine with the resistance quantities of every mode (vortex utilisation,
+    /// fatigue damage; [`resistance_kernel`]).
+    pub fn with_resistance(mut self) -> Result<Self, resistance_kernel::ResistancePrepError> {
+        let stages = case_modes(self.case)
+            .map_err(|e| resistance_kernel::ResistancePrepError::Modal(e.to_string()))?;
+        let rk = resistance_kernel::resistance_kernels(self.case, &stages)?;
+        if rk.len() != self.kernels.len() {
+            return Err(resistance_kernel::ResistancePrepError::Modal(format!(
+                "{} resistance kernels for {} checked modes",
+                rk.len(),
+                self.kernels.len()
+            )));
+        }
+        self.resistance = Some(rk);
+        Ok(self)
     }
 
     /// Number of (stage, mode) pairs.
@@ -178,10 +216,14 @@ impl<'a> Engine<'a> {
         self.kernels.len()
     }
 
-    /// The uniforms' integer bits and sampled values of sample `index`.
+    /// The uniforms' integer bits (after the rank correlations: each is the input's
+    /// population rank F(X)) and sampled values of sample `index`.
     pub fn draw(&self, index: u64, bits: &mut [u64], values: &mut [f64]) {
+        for (j, b) in bits.iter_mut().enumerate().take(self.inputs.len()) {
+            *b = rng::draw_bits(self.seed, index, j as u64);
+        }
+        self.copula.apply(bits);
         for (j, inp) in self.inputs.iter().enumerate() {
-            bits[j] = rng::draw_bits(self.seed, index, j as u64);
             values[j] = inp.distribution.sample(rng::bits_to_uniform(bits[j]));
         }
     }
@@ -215,6 +257,12 @@ impl<'a> Engine<'a> {
                 let mut sk = s;
                 sk.stiffness_scale = e_scale * per_stage.get(k.stage_index).copied().unwrap_or(1.0);
                 *o = k.evaluate(&sk);
+            }
+            if let Some(rk) = &self.resistance {
+                if let Err(m) = add_resistance(rk, out, s.reference_speed_m_s, e_scale) {
+                    *message = Some(m);
+                    return false;
+                }
             }
             return true;
         }
@@ -250,6 +298,11 @@ impl<'a> Engine<'a> {
             for (k, o) in ks.iter().zip(out.iter_mut()) {
                 *o = k.evaluate(&s);
             }
+            if self.resistance.is_some() {
+                let rk = resistance_kernel::resistance_kernels(&case, &stages)
+                    .map_err(|e| e.to_string())?;
+                add_resistance(&rk, out, None, 1.0)?;
+            }
         } else {
             let r = crate::wind::check_all(&case, &stages).map_err(|e| e.to_string())?;
             let mut j = 0;
@@ -271,8 +324,36 @@ impl<'a> Engine<'a> {
     }
 }
 
-/// Per-(stage, mode) quantities, in risk.csv order. More (utilisation, fatigue damage)
-/// are added here when the resistance part provides them.
+/// Evaluates the resistance quantities of every mode into `out` and folds their events into
+/// `exceeds`.
+fn add_resistance(
+    rk: &[resistance_kernel::ResistanceKernel],
+    out: &mut [ModeSample],
+    site_reference_speed_m_s: Option<f64>,
+    concrete_modulus_scale: f64,
+) -> Result<(), String> {
+    for (r, o) in rk.iter().zip(out.iter_mut()) {
+        let v = r
+            .evaluate(
+                o.load_scale,
+                o.frequency_hz,
+                o.critical_speed_m_s,
+                site_reference_speed_m_s,
+                concrete_modulus_scale,
+            )
+            .map_err(|e| e.to_string())?;
+        o.vortex_utilisation = v.vortex_utilisation;
+        o.fatigue_damage = v.fatigue_damage;
+        // EN 1992-1-1: utilisation M_Ed / M_Rd > 1 and Miner sum > 1 fail, as in `check`.
+        o.utilisation_exceeds = v.vortex_utilisation > 1.0;
+        o.damage_exceeds = v.fatigue_damage > 1.0;
+        o.exceeds |= o.utilisation_exceeds || o.damage_exceeds;
+    }
+    Ok(())
+}
+
+/// Per-(stage, mode) quantities, in risk.csv order (with `--with-resistance` the
+/// [`RESISTANCE_QUANTITIES`] follow each mode's).
 pub const QUANTITIES: [&str; 5] = [
     "frequency_hz",
     "critical_speed_m_s",
@@ -293,6 +374,13 @@ fn quantity_values(s: &ModeSample) -> [f64; 5] {
 
 /// Events per (stage, mode), in order.
 pub const MODE_EVENTS: [&str; 4] = ["in_e12_range", "tip_exceeds", "stress_exceeds", "exceeds"];
+
+/// Per-(stage, mode) resistance quantities (`--with-resistance`), after every mode's
+/// [`QUANTITIES`] in the accumulator.
+pub const RESISTANCE_QUANTITIES: [&str; 2] = ["vortex_utilisation", "fatigue_damage"];
+
+/// Per-(stage, mode) resistance events, after the case event in the accumulator.
+pub const RESISTANCE_EVENTS: [&str; 2] = ["utilisation_exceeds", "damage_exceeds"];
 
 fn mode_events(s: &ModeSample) -> [bool; 4] {
     [s.in_range, s.tip_exceeds, s.stress_exceeds, s.exceeds]
@@ -316,20 +404,58 @@ pub struct Accumulator {
     /// Per event x input: exact sum of the 53-bit integers behind U over the samples with
     /// the event, as (high, low) u64 halves of a u128.
     pub influence: Vec<(u64, u64)>,
+    /// Whether the resistance quantities and events follow (see [`resistance_quantity`],
+    /// [`resistance_event`]).
+    #[serde(default)]
+    pub resistance: bool,
+}
+
+/// Index into `sums` / `sketches` of resistance quantity `q` of mode `j`.
+pub fn resistance_quantity(modes: usize, j: usize, q: usize) -> usize {
+    modes * QUANTITIES.len() + j * RESISTANCE_QUANTITIES.len() + q
+}
+
+/// Index into `events` of resistance event `e` of mode `j`.
+pub fn resistance_event(modes: usize, stages: usize, j: usize, e: usize) -> usize {
+    modes * MODE_EVENTS.len() + stages + 1 + j * RESISTANCE_EVENTS.len() + e
 }
 
 impl Accumulator {
     pub fn new(modes: usize, stages: usize, inputs: usize) -> Self {
-        let events = modes * MODE_EVENTS.len() + stages + 1;
+        Self::with_resistance(modes, stages, inputs, false)
+    }
+
+    /// As [`Accumulator::new`], with room for the resistance quantities and events when
+    /// `resistance` (after the others, so the other indices do not move).
+    pub fn with_resistance(modes: usize, stages: usize, inputs: usize, resistance: bool) -> Self {
+        let r = usize::from(resistance);
+        let events = modes * MODE_EVENTS.len() + stages + 1 + r * modes * RESISTANCE_EVENTS.len();
+        let quantities = modes * (QUANTITIES.len() + r * RESISTANCE_QUANTITIES.len());
         Accumulator {
             samples: 0,
             invalid: 0,
             first_invalid: None,
-            sums: vec![ExactSum::default(); modes * QUANTITIES.len()],
-            sketches: vec![Sketch::default(); modes * QUANTITIES.len()],
+            sums: vec![ExactSum::default(); quantities],
+            sketches: vec![Sketch::default(); quantities],
             events: vec![0; events],
             influence: vec![(0, 0); events * inputs],
+            resistance,
         }
+    }
+
+    /// Number of (stage, mode) entries.
+    fn mode_count(&self) -> usize {
+        let per = QUANTITIES.len() + usize::from(self.resistance) * RESISTANCE_QUANTITIES.len();
+        self.sums.len() / per
+    }
+
+    /// Number of stages.
+    fn stage_count(&self) -> usize {
+        let m = self.mode_count();
+        self.events.len()
+            - m * MODE_EVENTS.len()
+            - 1
+            - usize::from(self.resistance) * m * RESISTANCE_EVENTS.len()
     }
 
     fn inputs(&self) -> usize {
@@ -374,7 +500,29 @@ impl Accumulator {
                 any = true;
             }
         }
-        let stages = self.events.len() - modes * ne - 1;
+        let stages = self.stage_count();
+        if self.resistance {
+            for (j, s) in samples.iter().enumerate() {
+                for (q, v) in [s.vortex_utilisation, s.fatigue_damage]
+                    .into_iter()
+                    .enumerate()
+                {
+                    let i = resistance_quantity(modes, j, q);
+                    self.sums[i].add(v);
+                    self.sketches[i].add(v, inv_ln_g);
+                }
+                for (e, hit) in [s.utilisation_exceeds, s.damage_exceeds]
+                    .into_iter()
+                    .enumerate()
+                {
+                    if hit {
+                        let i = resistance_event(modes, stages, j, e);
+                        self.events[i] += 1;
+                        self.bump_influence(i, bits);
+                    }
+                }
+            }
+        }
         for st in 0..stages.min(64) {
             if stage_hit[st] {
                 self.events[modes * ne + st] += 1;
@@ -382,7 +530,7 @@ impl Accumulator {
             }
         }
         if any {
-            let last = self.events.len() - 1;
+            let last = modes * ne + stages;
             self.events[last] += 1;
             self.bump_influence(last, bits);
         }
@@ -465,7 +613,11 @@ impl Accumulator {
 
     /// Mean of quantity `q` of mode `j`.
     pub fn mean(&self, j: usize, q: usize) -> f64 {
-        let i = j * QUANTITIES.len() + q;
+        self.mean_at(j * QUANTITIES.len() + q)
+    }
+
+    /// Mean of the quantity at index `i` of `sums` / `sketches`.
+    pub fn mean_at(&self, i: usize) -> f64 {
         self.sums[i].value() / self.sketches[i].total as f64
     }
 }
@@ -531,6 +683,12 @@ pub struct RiskHeader {
     pub modes: Vec<ModeInfo>,
     /// Stage index of each mode entry.
     pub stage_of: Vec<usize>,
+    /// Rank correlations between the inputs (empty: independent).
+    #[serde(default)]
+    pub correlations: Vec<correlation::CorrelationInfo>,
+    /// Whether the resistance quantities are sampled (`--with-resistance`).
+    #[serde(default)]
+    pub resistance: bool,
 }
 
 /// A shard's result.

@@ -30,7 +30,8 @@ pub fn run_range(
     let stage_of: Vec<usize> = engine.kernels.iter().map(|k| k.stage_index).collect();
     let n_in = engine.inputs.len();
     let inv = inv_ln_gamma();
-    let empty = || Accumulator::new(engine.modes(), engine.stages, n_in);
+    let res = engine.resistance.is_some();
+    let empty = || Accumulator::with_resistance(engine.modes(), engine.stages, n_in, res);
     let one = |&(a, b): &(u64, u64)| {
         let mut acc = empty();
         let mut text = Vec::new();
@@ -86,6 +87,8 @@ fn finite(s: &ModeSample) -> bool {
         s.scruton,
         s.tip_amplitude_m,
         s.max_stress_pa,
+        s.vortex_utilisation,
+        s.fatigue_damage,
     ]
     .iter()
     .all(|v| v.is_finite() && *v >= 0.0)
