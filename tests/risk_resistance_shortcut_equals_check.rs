@@ -32,6 +32,14 @@ fn table(method: &str) -> toml::Table {
     let mut t = input::parse_case_text(input::DEMO_CASE_TOML, "demo").unwrap();
     // A fixed base: springs do not scale with E, so E would re-solve.
     t.remove("base");
+    // Fatigue partial factors off their defaults, so both paths must honour the case's.
+    let design = t
+        .entry("design")
+        .or_insert_with(|| toml::Value::Table(toml::Table::new()))
+        .as_table_mut()
+        .unwrap();
+    design.insert("gamma_f_fat".into(), toml::Value::Float(1.1));
+    design.insert("gamma_s_fat".into(), toml::Value::Float(1.25));
     t["vortex"]
         .as_table_mut()
         .unwrap()

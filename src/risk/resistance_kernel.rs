@@ -21,9 +21,7 @@
 
 use crate::case::{Case, ResistanceSpec, VortexMethod};
 use crate::modal::{Mode, StageModes};
-use crate::resistance::along_height::{
-    annulus_at, node_resistances, ActionCurve, GAMMA_F_FAT, GAMMA_S_FAT,
-};
+use crate::resistance::along_height::{annulus_at, node_resistances, ActionCurve};
 use crate::resistance::cracked::CrackedSection;
 use crate::resistance::fatigue::SnCurve;
 use crate::resistance::ResistanceError;
@@ -53,6 +51,9 @@ pub struct ResistanceKernel {
     /// v_m / v_ref of the site's (50-year) wind at the shedding section (fatigue v_0).
     site_speed_factor: f64,
     site_reference_speed_m_s: f64,
+    /// The case's fatigue partial factors (`[design] gamma_f_fat`, `gamma_s_fat`).
+    gamma_f_fat: f64,
+    gamma_s_fat: f64,
 }
 
 /// Why the resistance quantities cannot be prepared.
@@ -178,6 +179,8 @@ impl ResistanceKernel {
             judged_years: climate.judged_years,
             site_speed_factor: profile::speed_factor(&climate.site_wind, model.z_m[ia]),
             site_reference_speed_m_s: climate.site_wind.reference_speed_m_s,
+            gamma_f_fat: spec.factors.gamma_f_fat,
+            gamma_s_fat: spec.factors.gamma_s_fat,
         }
     }
 
@@ -225,7 +228,7 @@ impl ResistanceKernel {
             let range = sec
                 .max_bar_stress_range_pa(nd.self_weight_n, m)
                 .ok_or(ResistanceError::NoElasticState { moment_nm: m })?;
-            damage = damage.max(curve.damage(range, cycles, GAMMA_F_FAT, GAMMA_S_FAT));
+            damage = damage.max(curve.damage(range, cycles, self.gamma_f_fat, self.gamma_s_fat));
         }
         Ok(ResistanceSample {
             vortex_utilisation: self.unit_utilisation * load_scale,
