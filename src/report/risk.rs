@@ -287,7 +287,10 @@ pub const RESISTANCE_METHOD: &str = "Resistance (--with-resistance): per stage a
      vertical bars at its worst height (EN 1992-1-1 6.8.4, Table 6.3N, cracked-section bar \
      stress range with the sample's concrete E); probability_exceeding of each is P(> 1), \
      and either counts in the mode's exceeds. Samples that keep the modes scale the case's \
-     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged)";
+     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged). The damage \
+     event is per mode: check also sums the modes' damage at each height and the stages' \
+     damage, so with more than one mode in lock-in P(damage > 1) here can be lower than \
+     check's verdict implies";
 
 /// How correlated inputs are sampled (note and summary.json).
 pub const CORRELATION_METHOD: &str = "Gaussian copula: each sample's independent uniforms of \
