@@ -44,15 +44,18 @@ pub fn read(path: &Path) -> Result<Partial, InputError> {
     }
     let modes = p.header.modes.len();
     let a = &p.accumulator;
-    let r = usize::from(p.header.resistance);
-    let events = modes * crate::risk::MODE_EVENTS.len()
-        + p.header.stages.len()
-        + 1
-        + r * modes * crate::risk::RESISTANCE_EVENTS.len();
-    let quantities =
-        modes * (crate::risk::QUANTITIES.len() + r * crate::risk::RESISTANCE_QUANTITIES.len());
+    // The layout an accumulator of this header has (sizes only; no samples).
+    let empty = crate::risk::Accumulator::with_resistance(
+        modes,
+        p.header.stages.len(),
+        p.header.inputs.len(),
+        p.header.resistance,
+    );
+    let events = empty.events.len();
     let consistent = a.resistance == p.header.resistance
-        && a.sums.len() == quantities
+        && a.mode_entries == empty.mode_entries
+        && a.stage_entries == empty.stage_entries
+        && a.sums.len() == empty.sums.len()
         && a.sketches.len() == a.sums.len()
         && a.sums.iter().all(|s| s.is_well_formed())
         && a.sketches

@@ -19,8 +19,9 @@ use super::ReportError;
 use crate::risk::kernel::ModeSample;
 use crate::risk::stats::RELATIVE_ACCURACY;
 use crate::risk::{
-    resistance_event, resistance_quantity, Accumulator, Partial, RiskHeader, MODE_EVENTS,
-    QUANTITIES, RESISTANCE_QUANTITIES,
+    resistance_event, resistance_quantity, stage_damage_event, stage_damage_quantity, Accumulator,
+    Partial, RiskHeader, MODE_EVENTS, QUANTITIES, RESISTANCE_QUANTITIES, STAGE_DAMAGE_QUANTITY,
+    TOTAL_DAMAGE_QUANTITY,
 };
 
 pub use super::risk_plots::{histograms_svg, influence_svg};
@@ -120,6 +121,34 @@ pub fn rows(h: &RiskHeader, a: &Accumulator) -> Vec<RiskRow> {
                     event: Some(j * ne + e),
                 });
             }
+        }
+    }
+    if h.resistance {
+        // EN 1992-1-1 6.8.4: each stage's damage summed over its modes at every height, and
+        // the total over the stages, as `check` judges them; P(> 1) on the rows.
+        let (modes, stages) = (h.modes.len(), h.stages.len());
+        for s in 0..=stages {
+            let i = stage_damage_quantity(modes, s);
+            let sk = &a.sketches[i];
+            let event = stage_damage_event(modes, stages, s);
+            let (p, se) = prob(event);
+            out.push(RiskRow {
+                stage: h.stages.get(s).cloned().unwrap_or_default(),
+                mode: String::new(),
+                quantity: if s < stages {
+                    STAGE_DAMAGE_QUANTITY
+                } else {
+                    TOTAL_DAMAGE_QUANTITY
+                }
+                .into(),
+                mean: (sk.total > 0).then(|| a.mean_at(i)),
+                p05: sk.quantile(0.05),
+                p50: sk.quantile(0.50),
+                p95: sk.quantile(0.95),
+                probability_exceeding: p,
+                standard_error: se,
+                event: Some(event),
+            });
         }
     }
     if h.judged {
@@ -287,10 +316,10 @@ pub const RESISTANCE_METHOD: &str = "Resistance (--with-resistance): per stage a
      vertical bars at its worst height (EN 1992-1-1 6.8.4, Table 6.3N, cracked-section bar \
      stress range with the sample's concrete E); probability_exceeding of each is P(> 1), \
      and either counts in the mode's exceeds. Samples that keep the modes scale the case's \
-     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged). The damage \
-     event is per mode: check also sums the modes' damage at each height and the stages' \
-     damage, so with more than one mode in lock-in P(damage > 1) here can be lower than \
-     check's verdict implies";
+     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged). As check \
+     judges it, stage_fatigue_damage is the largest sum over the stage's modes at one height \
+     and total_fatigue_damage the sum over the stages; either above 1 also counts in the \
+     stage's exceeds_any_mode and the case's exceeds_any";
 
 /// How correlated inputs are sampled (note and summary.json).
 pub const CORRELATION_METHOD: &str = "Gaussian copula: each sample's independent uniforms of \

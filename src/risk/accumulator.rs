@@ -38,6 +38,14 @@ pub const RESISTANCE_QUANTITIES: [&str; 2] = ["vortex_utilisation", "fatigue_dam
 /// Per-(stage, mode) resistance events, after the case event in the accumulator.
 pub const RESISTANCE_EVENTS: [&str; 2] = ["utilisation_exceeds", "damage_exceeds"];
 
+/// Per-stage resistance quantity (`--with-resistance`): the stage's fatigue damage, max over
+/// the height of the sum over its modes (as `check`), after the per-mode resistance
+/// quantities; then [`TOTAL_DAMAGE_QUANTITY`], the sum over the stages. Each has the event
+/// "> 1" after the per-mode resistance events.
+pub const STAGE_DAMAGE_QUANTITY: &str = "stage_fatigue_damage";
+/// The case's fatigue damage summed over the stages (see [`STAGE_DAMAGE_QUANTITY`]).
+pub const TOTAL_DAMAGE_QUANTITY: &str = "total_fatigue_damage";
+
 fn mode_events(s: &ModeSample) -> [bool; 4] {
     [s.in_range, s.tip_exceeds, s.stress_exceeds, s.exceeds]
 }
@@ -64,6 +72,9 @@ pub struct Accumulator {
     /// [`resistance_event`]).
     #[serde(default)]
     pub resistance: bool,
+    /// Number of (stage, mode) entries and of stages.
+    pub mode_entries: usize,
+    pub stage_entries: usize,
 }
 
 /// Index into `sums` / `sketches` of resistance quantity `q` of mode `j`.
@@ -76,6 +87,18 @@ pub fn resistance_event(modes: usize, stages: usize, j: usize, e: usize) -> usiz
     modes * MODE_EVENTS.len() + stages + 1 + j * RESISTANCE_EVENTS.len() + e
 }
 
+/// Index into `sums` / `sketches` of the fatigue damage of stage `s` (`s` = the number of
+/// stages: the total over the stages).
+pub fn stage_damage_quantity(modes: usize, s: usize) -> usize {
+    modes * (QUANTITIES.len() + RESISTANCE_QUANTITIES.len()) + s
+}
+
+/// Index into `events` of "fatigue damage of stage `s` > 1" (`s` = the number of stages:
+/// the total).
+pub fn stage_damage_event(modes: usize, stages: usize, s: usize) -> usize {
+    modes * (MODE_EVENTS.len() + RESISTANCE_EVENTS.len()) + stages + 1 + s
+}
+
 impl Accumulator {
     pub fn new(modes: usize, stages: usize, inputs: usize) -> Self {
         Self::with_resistance(modes, stages, inputs, false)
@@ -85,8 +108,12 @@ impl Accumulator {
     /// `resistance` (after the others, so the other indices do not move).
     pub fn with_resistance(modes: usize, stages: usize, inputs: usize, resistance: bool) -> Self {
         let r = usize::from(resistance);
-        let events = modes * MODE_EVENTS.len() + stages + 1 + r * modes * RESISTANCE_EVENTS.len();
-        let quantities = modes * (QUANTITIES.len() + r * RESISTANCE_QUANTITIES.len());
+        let events = modes * MODE_EVENTS.len()
+            + stages
+            + 1
+            + r * (modes * RESISTANCE_EVENTS.len() + stages + 1);
+        let quantities =
+            modes * (QUANTITIES.len() + r * RESISTANCE_QUANTITIES.len()) + r * (stages + 1);
         Accumulator {
             samples: 0,
             invalid: 0,
@@ -96,22 +123,14 @@ impl Accumulator {
             events: vec![0; events],
             influence: vec![(0, 0); events * inputs],
             resistance,
+            mode_entries: modes,
+            stage_entries: stages,
         }
-    }
-
-    /// Number of (stage, mode) entries.
-    fn mode_count(&self) -> usize {
-        let per = QUANTITIES.len() + usize::from(self.resistance) * RESISTANCE_QUANTITIES.len();
-        self.sums.len() / per
     }
 
     /// Number of stages.
     fn stage_count(&self) -> usize {
-        let m = self.mode_count();
-        self.events.len()
-            - m * MODE_EVENTS.len()
-            - 1
-            - usize::from(self.resistance) * m * RESISTANCE_EVENTS.len()
+        self.stage_entries
     }
 
     fn inputs(&self) -> usize {
@@ -176,6 +195,31 @@ impl Accumulator {
                         self.events[i] += 1;
                         self.bump_influence(i, bits);
                     }
+                }
+            }
+            // Each stage's damage (max over the height of its modes' sum) and the total over
+            // the stages; above 1 either fails its stage / the case, as in `check`.
+            for st in 0..=stages {
+                let v = if st == stages {
+                    samples.first().map_or(0.0, |s| s.total_fatigue_damage)
+                } else {
+                    (0..modes)
+                        .find(|&j| stage_of[j] == st)
+                        .map_or(0.0, |j| samples[j].stage_fatigue_damage)
+                };
+                let i = stage_damage_quantity(modes, st);
+                self.sums[i].add(v);
+                self.sketches[i].add(v, inv_ln_g);
+                if v > 1.0 {
+                    let e = stage_damage_event(modes, stages, st);
+                    self.events[e] += 1;
+                    self.bump_influence(e, bits);
+                    if st < stages {
+                        if let Some(h) = stage_hit.get_mut(st) {
+                            *h = true;
+                        }
+                    }
+                    any = true;
                 }
             }
         }

@@ -73,6 +73,12 @@ pub struct ModeSample {
     pub fatigue_damage: f64,
     pub utilisation_exceeds: bool,
     pub damage_exceeds: bool,
+    /// The stage's fatigue damage: max over the height of the sum over its modes, as
+    /// `check` (the same value on every mode of the stage; else 0).
+    pub stage_fatigue_damage: f64,
+    /// The sum over the stages of [`Self::stage_fatigue_damage`], as `check`'s total (the
+    /// same value on every entry; else 0).
+    pub total_fatigue_damage: f64,
 }
 
 /// Precomputed data of one stage and mode.

@@ -333,7 +333,17 @@ fn add_resistance(
     site_reference_speed_m_s: Option<f64>,
     concrete_modulus_scale: f64,
 ) -> Result<(), String> {
+    // Per stage: each node's damage summed over the stage's modes (EN 1992-1-1 6.8.4 with
+    // Palmgren-Miner, as `check`); kernels come stage by stage.
+    let mut node_damage: Vec<f64> = Vec::new();
+    let mut stage_damage: Vec<(usize, f64)> = Vec::new();
     for (r, o) in rk.iter().zip(out.iter_mut()) {
+        if stage_damage.last().is_none_or(|&(s, _)| s != r.stage_index) {
+            flush_stage(&mut node_damage, &mut stage_damage);
+            stage_damage.push((r.stage_index, 0.0));
+            node_damage.clear();
+            node_damage.resize(r.node_count(), 0.0);
+        }
         let v = r
             .evaluate(
                 o.load_scale,
@@ -341,6 +351,7 @@ fn add_resistance(
                 o.critical_speed_m_s,
                 site_reference_speed_m_s,
                 concrete_modulus_scale,
+                &mut node_damage,
             )
             .map_err(|e| e.to_string())?;
         o.vortex_utilisation = v.vortex_utilisation;
@@ -350,7 +361,23 @@ fn add_resistance(
         o.damage_exceeds = v.fatigue_damage > 1.0;
         o.exceeds |= o.utilisation_exceeds || o.damage_exceeds;
     }
+    flush_stage(&mut node_damage, &mut stage_damage);
+    let total: f64 = stage_damage.iter().map(|&(_, d)| d).sum();
+    for (r, o) in rk.iter().zip(out.iter_mut()) {
+        o.stage_fatigue_damage = stage_damage
+            .iter()
+            .find(|&&(s, _)| s == r.stage_index)
+            .map_or(0.0, |&(_, d)| d);
+        o.total_fatigue_damage = total;
+    }
     Ok(())
+}
+
+/// Closes the current stage of [`add_resistance`]: its damage is the largest node sum.
+fn flush_stage(node_damage: &mut [f64], stage_damage: &mut [(usize, f64)]) {
+    if let Some(last) = stage_damage.last_mut() {
+        last.1 = node_damage.iter().copied().fold(0.0, f64::max);
+    }
 }
 
 /// Samples [from, to) of `n` split into `shards`: shard `k` (1-based) gets

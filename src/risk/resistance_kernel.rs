@@ -39,6 +39,8 @@ struct FatigueNode {
 /// Precomputed resistance data of one stage and mode.
 #[derive(Debug, Clone)]
 pub struct ResistanceKernel {
+    /// Index of the stage in the case.
+    pub stage_index: usize,
     /// max over the nodes of gamma_Q |M_unit(z)| / M_Rd(z), M_unit the inertia moment per
     /// metre of antinode amplitude at the case's frequency.
     unit_utilisation: f64,
@@ -101,13 +103,20 @@ pub fn resistance_kernels(
     };
     let site = wind::site_wind(case, "risk")?;
     let mut out = Vec::new();
-    for sm in stages {
+    for (stage_index, sm) in stages.iter().enumerate() {
         let climate = StageClimate::of(case, &sm.stage, site);
         let (mrd, nodes) = stage_nodes(spec, sm, case.shell.elastic_modulus_pa)?;
         let nodes = std::sync::Arc::new(nodes);
         for mode in sm.modes.iter().take(case.vortex.modes) {
             out.push(ResistanceKernel::new(
-                spec, &climate, sm, mode, &mrd, &nodes, eps0,
+                stage_index,
+                spec,
+                &climate,
+                sm,
+                mode,
+                &mrd,
+                &nodes,
+                eps0,
             ));
         }
     }
@@ -145,6 +154,7 @@ fn stage_nodes(
 impl ResistanceKernel {
     #[allow(clippy::too_many_arguments)]
     fn new(
+        stage_index: usize,
         spec: &ResistanceSpec,
         climate: &StageClimate,
         sm: &StageModes,
@@ -172,6 +182,7 @@ impl ResistanceKernel {
             .map(|(m, r)| spec.factors.gamma_q * m / r)
             .fold(0.0, f64::max);
         ResistanceKernel {
+            stage_index,
             unit_utilisation,
             unit_moment_nm,
             nodes: nodes.clone(),
@@ -184,9 +195,16 @@ impl ResistanceKernel {
         }
     }
 
+    /// Number of nodes of the stage (the length of `node_damage` in [`Self::evaluate`]).
+    pub fn node_count(&self) -> usize {
+        self.nodes.len()
+    }
+
     /// One sample: `load_scale` = (n / n_case)^2 y (the factor on the unit moments, 0 when
     /// screened out), the sample's frequency and critical speed, its site reference speed
-    /// (`None` = the case's) and the factor on the concrete modulus (E / E_case).
+    /// (`None` = the case's) and the factor on the concrete modulus (E / E_case). Each
+    /// node's damage of this mode is added into `node_damage` (one entry per node of the
+    /// stage), so the stage's sum over its modes can be taken as `check` does.
     pub fn evaluate(
         &self,
         load_scale: f64,
@@ -194,6 +212,7 @@ impl ResistanceKernel {
         critical_speed_m_s: f64,
         site_reference_speed_m_s: Option<f64>,
         concrete_modulus_scale: f64,
+        node_damage: &mut [f64],
     ) -> Result<ResistanceSample, ResistanceError> {
         if load_scale <= 0.0 {
             return Ok(ResistanceSample::default());
@@ -209,7 +228,12 @@ impl ResistanceKernel {
         );
         let curve = SnCurve::STRAIGHT_BARS;
         let mut damage: f64 = 0.0;
-        for (nd, &u) in self.nodes.iter().zip(&self.unit_moment_nm) {
+        for ((nd, &u), sum) in self
+            .nodes
+            .iter()
+            .zip(&self.unit_moment_nm)
+            .zip(node_damage.iter_mut())
+        {
             let m = u * load_scale;
             if m <= 0.0 {
                 continue;
@@ -228,7 +252,9 @@ impl ResistanceKernel {
             let range = sec
                 .max_bar_stress_range_pa(nd.self_weight_n, m)
                 .ok_or(ResistanceError::NoElasticState { moment_nm: m })?;
-            damage = damage.max(curve.damage(range, cycles, self.gamma_f_fat, self.gamma_s_fat));
+            let d = curve.damage(range, cycles, self.gamma_f_fat, self.gamma_s_fat);
+            *sum += d;
+            damage = damage.max(d);
         }
         Ok(ResistanceSample {
             vortex_utilisation: self.unit_utilisation * load_scale,
