@@ -55,6 +55,20 @@ fn edited(method: &str, values: &[f64]) -> Case {
     input::parse_case_table(t, Path::new(""), "demo").unwrap()
 }
 
+/// Inputs fixed at the given values (a zero-width uniform): the sample is the case itself
+/// unless the test passes other values.
+fn fixed_inputs(keys: &[(&str, f64)]) -> Vec<UncertainInput> {
+    keys.iter()
+        .map(|&(k, v)| UncertainInput {
+            key: k.into(),
+            role: role_of(k, true),
+            distribution: Distribution::uniform(v, v),
+            described: String::new(),
+            case_value: v,
+        })
+        .collect()
+}
+
 fn no_full(_: &[f64]) -> Result<Case, String> {
     Err("this test samples shortcut keys only".into())
 }
@@ -96,16 +110,7 @@ fn shortcut_resistance_equals_the_full_check() {
     for method in ["en1991-e1", "en1991-e2"] {
         let t = table(method);
         let base = input::parse_case_table(t, Path::new(""), "demo").unwrap();
-        let inputs: Vec<UncertainInput> = KEYS
-            .iter()
-            .map(|&(k, v)| UncertainInput {
-                key: k.into(),
-                role: role_of(k, true),
-                distribution: Distribution::uniform(v, v),
-                described: String::new(),
-                case_value: v,
-            })
-            .collect();
+        let inputs = fixed_inputs(&KEYS);
         let e = Engine::new(&base, &inputs, 1, &no_full)
             .unwrap()
             .with_resistance()
@@ -178,16 +183,7 @@ fn re_solved_samples_give_the_full_check_resistance() {
         ("lining[0].mass_per_area_kg_m2", 240.0),
         ("vortex.log_decrement", 0.03),
     ];
-    let inputs: Vec<UncertainInput> = keys
-        .iter()
-        .map(|&(k, v)| UncertainInput {
-            key: k.into(),
-            role: role_of(k, true),
-            distribution: Distribution::uniform(v, v),
-            described: String::new(),
-            case_value: v,
-        })
-        .collect();
+    let inputs = fixed_inputs(&keys);
     let edit = |values: &[f64]| -> Case {
         let mut t = t.clone();
         for ((k, _), v) in keys.iter().zip(values) {
@@ -255,16 +251,7 @@ fn stage_and_total_damage_equal_the_full_check() {
     // over the modes is exercised, not only the single-mode case.
     let method = "en1991-e1";
     let base = input::parse_case_table(table(method), Path::new(""), "demo").unwrap();
-    let inputs: Vec<UncertainInput> = KEYS
-        .iter()
-        .map(|&(k, v)| UncertainInput {
-            key: k.into(),
-            role: role_of(k, true),
-            distribution: Distribution::uniform(v, v),
-            described: String::new(),
-            case_value: v,
-        })
-        .collect();
+    let inputs = fixed_inputs(&KEYS);
     let e = Engine::new(&base, &inputs, 1, &no_full)
         .unwrap()
         .with_resistance()

@@ -42,22 +42,14 @@ pub fn read(
     table: &Table,
     entries: &[UncertainEntry],
 ) -> Result<RankCorrelations, Vec<ValidationIssue>> {
-    let Some(v) = table.get("rank_correlation") else {
+    let items = super::uncertain::table_array(
+        table,
+        "rank_correlation",
+        MAX_PAIRS,
+        " (every pair of 64 inputs)",
+    )?;
+    if items.is_empty() {
         return Ok(RankCorrelations::default());
-    };
-    let Value::Array(items) = v else {
-        return Err(vec![ValidationIssue::new(
-            "rank_correlation",
-            render(v),
-            "expected [[rank_correlation]] tables",
-        )]);
-    };
-    if items.len() > MAX_PAIRS {
-        return Err(vec![ValidationIssue::new(
-            "rank_correlation",
-            format!("{} entries", items.len()),
-            format!("at most {MAX_PAIRS} [[rank_correlation]] entries (every pair of 64 inputs)"),
-        )]);
     }
     let mut issues = Vec::new();
     let mut pairs: Vec<RankPair> = Vec::new();

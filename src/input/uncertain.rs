@@ -37,25 +37,37 @@ const KEYS: &[&str] = &[
     "truncate_high",
 ];
 
-/// Reads the `[[uncertain]]` entries of a case table (absent = none).
-pub fn read(table: &Table) -> Result<Vec<UncertainEntry>, Vec<ValidationIssue>> {
-    let Some(v) = table.get("uncertain") else {
-        return Ok(Vec::new());
+/// The `[[key]]` tables of a case table (absent = none), refused when `key` is not an array
+/// or holds more than `max` entries (`why_max` explains the limit in the message).
+pub(crate) fn table_array<'a>(
+    table: &'a Table,
+    key: &str,
+    max: usize,
+    why_max: &str,
+) -> Result<&'a [Value], Vec<ValidationIssue>> {
+    let Some(v) = table.get(key) else {
+        return Ok(&[]);
     };
     let Value::Array(entries) = v else {
         return Err(vec![ValidationIssue::new(
-            "uncertain",
+            key,
             render(v),
-            "expected [[uncertain]] tables",
+            format!("expected [[{key}]] tables"),
         )]);
     };
-    if entries.len() > MAX_UNCERTAIN {
+    if entries.len() > max {
         return Err(vec![ValidationIssue::new(
-            "uncertain",
+            key,
             format!("{} entries", entries.len()),
-            format!("at most {MAX_UNCERTAIN} [[uncertain]] entries"),
+            format!("at most {max} [[{key}]] entries{why_max}"),
         )]);
     }
+    Ok(entries)
+}
+
+/// Reads the `[[uncertain]]` entries of a case table (absent = none).
+pub fn read(table: &Table) -> Result<Vec<UncertainEntry>, Vec<ValidationIssue>> {
+    let entries = table_array(table, "uncertain", MAX_UNCERTAIN, "")?;
     let mut issues = Vec::new();
     let mut out = Vec::new();
     for (i, e) in entries.iter().enumerate() {
