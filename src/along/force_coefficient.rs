@@ -9,7 +9,7 @@
 //!   sqrt(2 q_p / rho) (7.15). The figure is drawn up to Re = 1e7; above it we keep the
 //!   expression, which rises slowly towards 1.2 (conservative, our choice).
 //! - Equivalent roughness k (Table 7.13): smooth concrete 0.2 mm (rough concrete 1.0 mm), as
-//!   transcribed with the table number in one public EN 1991-1-4 calculator's source (file
+//!   quoted with the table number in one public EN 1991-1-4 calculator's source (file
 //!   headed "Wind data constants and tables (EN 1991-1-4)", `CYL_SURFACES`; its repository
 //!   is not named by the search index, see data/reference/README.md); the standard's copy
 //!   itself was not read.
@@ -24,7 +24,7 @@
 //! Dimensionless.
 
 /// Default equivalent surface roughness of smooth concrete, m (Table 7.13; one public
-/// transcription, see the module doc).
+/// calculator source, see the module doc).
 pub const SMOOTH_CONCRETE_ROUGHNESS_M: f64 = 0.2e-3;
 /// Smallest k/b of Figure 7.28 (its lowest curve).
 pub const MIN_ROUGHNESS_RATIO: f64 = 1e-5;

@@ -15,7 +15,7 @@
 //!   alpha = 0.67 + 0.05 ln(z0) (B.1), as written in two public implementations (see
 //!   data/reference/README.md).
 //! - Table 4.1 (z0, z_min): 0.003/0.01/0.05/0.3/1.0 m and 1/1/2/5/10 m for categories
-//!   0/I/II/III/IV, as transcribed with the table number in two public implementations:
+//!   0/I/II/III/IV, as quoted with the table number in two public implementations:
 //!   `DanBeranek/desssign` `src/desssign/loads/wind/constants.py` (ROUGHNESS_LENGTH,
 //!   MINIMUM_HEIGHT) and `AMcCrone/tt-BS-EN-1991-1-4` `calc_engine/eu/roughness.py` (the
 //!   standard's copy itself was not read).
@@ -66,7 +66,7 @@ impl TerrainCategory {
         }
     }
 
-    /// Roughness length z0, m (Table 4.1; public transcriptions, see the module doc).
+    /// Roughness length z0, m (Table 4.1; public implementations, see the module doc).
     pub fn roughness_m(self) -> f64 {
         match self {
             Self::Zero => 0.003,
@@ -77,7 +77,7 @@ impl TerrainCategory {
         }
     }
 
-    /// Minimum height z_min, m (Table 4.1; public transcriptions, see the module doc).
+    /// Minimum height z_min, m (Table 4.1; public implementations, see the module doc).
     pub fn z_min_m(self) -> f64 {
         match self {
             Self::Zero | Self::I => 1.0,

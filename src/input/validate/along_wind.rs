@@ -2,7 +2,7 @@
 //! `shell.surface_roughness_mm` and `[along_wind]`.
 //!
 //! Units: mm in the file for the roughness, m inside. Default roughness: smooth concrete,
-//! EN 1991-1-4 Table 7.13 (one public transcription), `along::force_coefficient`.
+//! EN 1991-1-4 Table 7.13 (one public calculator's source), `along::force_coefficient`.
 
 use super::wind::check_en_wind;
 use super::*;
