@@ -4,38 +4,13 @@
 //! problem. No outside reference is involved: the checks are of the project's own contract
 //! (design.md: sharding and merge, exit codes).
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use assert_cmd::Command;
+
+mod risk_common;
 use predicates::prelude::*;
-
-const FAST: &str = r#"
-[[uncertain]]
-key = "vortex.log_decrement"
-distribution = "lognormal"
-mean = 0.03
-cov = 0.3
-
-[[uncertain]]
-key = "vortex.strouhal"
-distribution = "normal"
-mean = 0.18
-cov = 0.05
-truncate_low = 0.12
-
-[[uncertain]]
-key = "uncertainty.c_lat_factor"
-distribution = "lognormal"
-mean = 1.0
-cov = 0.2
-
-[[uncertain]]
-key = "wind.reference_speed_m_s"
-distribution = "gumbel"
-mean = 24.0
-cov = 0.12
-truncate_high = 60.0
-"#;
+use risk_common::{case_with, risk, FAST};
 
 /// FAST with rank correlations (Gaussian copula): still per sample, so still shardable.
 const FAST_CORRELATIONS: &str = r#"
@@ -67,23 +42,6 @@ distribution = "uniform"
 low = 0.02
 high = 0.04
 "#;
-
-fn case_with(dir: &Path, name: &str, extra: &str) -> PathBuf {
-    let p = dir.join(name);
-    std::fs::write(&p, format!("{}\n{extra}", stackwake::input::DEMO_CASE_TOML)).unwrap();
-    p
-}
-
-fn risk(case: &Path, args: &[&str], out: &Path) -> assert_cmd::assert::Assert {
-    Command::cargo_bin("stackwake")
-        .unwrap()
-        .arg("risk")
-        .arg(case)
-        .args(args)
-        .arg("--out")
-        .arg(out)
-        .assert()
-}
 
 fn files(dir: &Path) -> Vec<(String, Vec<u8>)> {
     let mut v: Vec<(String, Vec<u8>)> = std::fs::read_dir(dir)

@@ -11,38 +11,13 @@
 //! - hostile tables (unknown key, |rho| >= 1, a self-pair, a duplicate pair, a combination
 //!   that is not positive definite) exit 2 naming the field and rule, writing nothing.
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use assert_cmd::Command;
+
+mod risk_common;
 use predicates::prelude::*;
-
-const UNCERTAIN: &str = r#"
-[[uncertain]]
-key = "vortex.log_decrement"
-distribution = "lognormal"
-mean = 0.03
-cov = 0.3
-
-[[uncertain]]
-key = "vortex.strouhal"
-distribution = "normal"
-mean = 0.18
-cov = 0.05
-truncate_low = 0.12
-
-[[uncertain]]
-key = "uncertainty.c_lat_factor"
-distribution = "lognormal"
-mean = 1.0
-cov = 0.2
-
-[[uncertain]]
-key = "wind.reference_speed_m_s"
-distribution = "gumbel"
-mean = 24.0
-cov = 0.12
-truncate_high = 60.0
-"#;
+use risk_common::{case_with, risk, FAST};
 
 const CORRELATIONS: &str = r#"
 [[rank_correlation]]
@@ -57,23 +32,6 @@ coefficient = 0.5
 keys = ["uncertainty.c_lat_factor", "vortex.log_decrement"]
 coefficient = 0.4
 "#;
-
-fn case_with(dir: &Path, name: &str, extra: &str) -> PathBuf {
-    let p = dir.join(name);
-    std::fs::write(&p, format!("{}\n{extra}", stackwake::input::DEMO_CASE_TOML)).unwrap();
-    p
-}
-
-fn risk(case: &Path, args: &[&str], out: &Path) -> assert_cmd::assert::Assert {
-    Command::cargo_bin("stackwake")
-        .unwrap()
-        .arg("risk")
-        .arg(case)
-        .args(args)
-        .arg("--out")
-        .arg(out)
-        .assert()
-}
 
 fn ranks(x: &[f64]) -> Vec<f64> {
     let mut idx: Vec<usize> = (0..x.len()).collect();
@@ -124,11 +82,7 @@ fn sampled_inputs(path: &Path, keys: &[&str]) -> Vec<Vec<f64>> {
 #[test]
 fn kept_samples_have_the_target_rank_correlations() {
     let dir = tempfile::tempdir().unwrap();
-    let case = case_with(
-        dir.path(),
-        "case.toml",
-        &format!("{UNCERTAIN}\n{CORRELATIONS}"),
-    );
+    let case = case_with(dir.path(), "case.toml", &format!("{FAST}\n{CORRELATIONS}"));
     let out = dir.path().join("out");
     risk(
         &case,
@@ -194,7 +148,7 @@ fn kept_samples_have_the_target_rank_correlations() {
 #[test]
 fn independent_runs_say_so_and_a_fixed_marginal_is_warned_about() {
     let dir = tempfile::tempdir().unwrap();
-    let case = case_with(dir.path(), "plain.toml", UNCERTAIN);
+    let case = case_with(dir.path(), "plain.toml", FAST);
     let out = dir.path().join("plain");
     risk(&case, &["--samples", "200"], &out).success();
     let j: serde_json::Value =
@@ -235,7 +189,7 @@ fn hostile_correlation_tables_exit_2_naming_the_rule() {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("out");
     let bad = |name: &str, table: &str, needle: &str| {
-        let case = case_with(dir.path(), name, &format!("{UNCERTAIN}\n{table}"));
+        let case = case_with(dir.path(), name, &format!("{FAST}\n{table}"));
         risk(&case, &["--samples", "10"], &out)
             .code(2)
             .stderr(predicate::str::contains(needle));
@@ -288,7 +242,7 @@ fn hostile_correlation_tables_exit_2_naming_the_rule() {
         dir.path(),
         "not_pd2.toml",
         &format!(
-            "{UNCERTAIN}\n{}{}{}",
+            "{FAST}\n{}{}{}",
             pair("vortex.log_decrement", "vortex.strouhal", "0.9"),
             pair("vortex.strouhal", "uncertainty.c_lat_factor", "0.9"),
             pair("vortex.log_decrement", "uncertainty.c_lat_factor", "-0.9")
@@ -304,7 +258,7 @@ fn hostile_correlation_tables_exit_2_naming_the_rule() {
         dir.path(),
         "check.toml",
         &format!(
-            "{UNCERTAIN}\n{}",
+            "{FAST}\n{}",
             pair("vortex.log_decrement", "vortex.strouhal", "0.3")
         ),
     );
