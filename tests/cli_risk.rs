@@ -256,3 +256,69 @@ fn hostile_inputs_exit_2_with_clear_messages() {
         .code(2)
         .stderr(predicate::str::contains("1 of 2 shards given"));
 }
+
+#[test]
+fn kept_samples_carry_the_stage_and_total_damage() {
+    // Project contract (no outside reference): with --with-resistance each row of
+    // risk_samples.csv repeats its stage's damage (max over the height of the sum over the
+    // stage's modes, so at least each mode's own) and the case's total, the sum over the
+    // stages.
+    let dir = tempfile::tempdir().unwrap();
+    let case = case_with(dir.path(), "c.toml", FAST);
+    let out = dir.path().join("r");
+    risk(
+        &case,
+        &[
+            "--samples",
+            "40",
+            "--seed",
+            "3",
+            "--with-resistance",
+            "--keep-samples",
+        ],
+        &out,
+    )
+    .success();
+    let mut rd = csv::Reader::from_path(out.join("risk_samples.csv")).unwrap();
+    let head = rd.headers().unwrap().clone();
+    let col = |n: &str| {
+        head.iter()
+            .position(|h| h == n)
+            .unwrap_or_else(|| panic!("{n}"))
+    };
+    let (c_sample, c_stage, c_mode_d, c_stage_d, c_total) = (
+        col("sample"),
+        col("stage"),
+        col("fatigue_damage"),
+        col("stage_fatigue_damage"),
+        col("total_fatigue_damage"),
+    );
+    let rows: Vec<csv::StringRecord> = rd.records().map(|r| r.unwrap()).collect();
+    let f = |r: &csv::StringRecord, c: usize| r[c].parse::<f64>().unwrap();
+    let mut checked = 0;
+    for sample in rows
+        .iter()
+        .map(|r| r[c_sample].to_string())
+        .collect::<std::collections::BTreeSet<_>>()
+    {
+        let mine: Vec<&csv::StringRecord> = rows.iter().filter(|r| r[c_sample] == sample).collect();
+        let mut per_stage: Vec<(String, f64)> = Vec::new();
+        for r in &mine {
+            let (st, d) = (r[c_stage].to_string(), f(r, c_stage_d));
+            assert!(d >= f(r, c_mode_d), "stage damage below a mode's: {r:?}");
+            match per_stage.iter().find(|(s, _)| *s == st) {
+                Some((_, v)) => assert_eq!(*v, d, "one stage, two damages: {r:?}"),
+                None => per_stage.push((st, d)),
+            }
+        }
+        let total = f(mine[0], c_total);
+        assert!(mine.iter().all(|r| f(r, c_total) == total));
+        let sum: f64 = per_stage.iter().map(|(_, d)| d).sum();
+        assert!(
+            (sum - total).abs() <= 1e-12 * total.abs().max(1e-300),
+            "{sum} vs {total}"
+        );
+        checked += usize::from(total > 0.0);
+    }
+    assert!(checked > 0, "no sample had fatigue damage");
+}

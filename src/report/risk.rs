@@ -422,6 +422,8 @@ pub fn samples_header(h: &RiskHeader) -> Vec<u8> {
     }
     if h.resistance {
         rec.extend(RESISTANCE_QUANTITIES.iter().map(|c| c.to_string()));
+        // The stage's and the case's damage, repeated on each of the stage's rows.
+        rec.extend([STAGE_DAMAGE_QUANTITY.into(), TOTAL_DAMAGE_QUANTITY.into()]);
     }
     rec.push("verdict".into());
     let _ = w.write_record(&rec);
@@ -446,7 +448,7 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
                 None => {
                     let mut rec = vec![i.to_string()];
                     rec.extend(keys.iter().cloned());
-                    let blanks = 7 + if resistance { 2 } else { 0 };
+                    let blanks = 7 + if resistance { 4 } else { 0 };
                     rec.extend(std::iter::repeat_n(String::new(), blanks));
                     rec.push("invalid".into());
                     let _ = w.write_record(&rec);
@@ -474,7 +476,12 @@ pub fn sample_row_writer(h: &RiskHeader) -> Box<crate::risk::run::RowWriter> {
                             num(s.max_stress_pa),
                         ]);
                         if resistance {
-                            rec.extend([num(s.vortex_utilisation), num(s.fatigue_damage)]);
+                            rec.extend([
+                                num(s.vortex_utilisation),
+                                num(s.fatigue_damage),
+                                num(s.stage_fatigue_damage),
+                                num(s.total_fatigue_damage),
+                            ]);
                         }
                         rec.push(verdict.into());
                         let _ = w.write_record(&rec);
