@@ -1,6 +1,7 @@
 //! Plots of the risk note: `risk_histograms.svg` (per stage and mode, the distribution of the
 //! tip amplitude of the samples inside the E.1.2 range, or of the frequency when none is,
-//! drawn from the quantile sketch's bins, each counted at its centre) and
+//! drawn from the quantile sketch's bins, each counted at its centre; with the resistance
+//! quantities also each stage's fatigue damage on a log10 axis with the D = 1 limit) and
 //! `risk_influence.svg` (a tornado per stage: the rank correlation of each input with the
 //! stage's headline probability, largest first). Hand-written SVG in the project's palette;
 //! bars carry their value as text, so the plots read in greyscale.
@@ -11,11 +12,11 @@ use std::fmt::Write as _;
 use super::note::html_escape as escape;
 use super::risk::{headline_events, influence_ranking, num};
 use crate::risk::stats::{Sketch, RELATIVE_ACCURACY};
-use crate::risk::{Accumulator, RiskHeader, QUANTITIES};
+use crate::risk::{stage_damage_quantity, Accumulator, RiskHeader, QUANTITIES};
 
 /// Histogram counts of the non-zero values of a sketch over `bins` equal bins between its
 /// 0.1 % and 99.9 % points: (low edge, width, counts).
-fn histogram(sk: &Sketch, bins: usize) -> Option<(f64, f64, Vec<u64>)> {
+fn histogram(sk: &Sketch, bins: usize, log: bool) -> Option<(f64, f64, Vec<u64>)> {
     let nonzero = sk.total - sk.zeros;
     if nonzero == 0 {
         return None;
@@ -24,9 +25,12 @@ fn histogram(sk: &Sketch, bins: usize) -> Option<(f64, f64, Vec<u64>)> {
         let rank_share = (sk.zeros as f64 + p * nonzero as f64) / sk.total as f64;
         sk.quantile(rank_share.min(1.0))
     };
-    let (lo, hi) = (q(0.001)?, q(0.999)?);
+    let axis = |v: f64| if log { v.log10() } else { v };
+    let (lo, hi) = (axis(q(0.001)?), axis(q(0.999)?));
     let (lo, hi) = if hi > lo {
         (lo, hi)
+    } else if log {
+        (lo - 0.5, lo + 0.5)
     } else {
         (lo * 0.99, lo * 1.01 + 1e-300)
     };
@@ -38,7 +42,7 @@ fn histogram(sk: &Sketch, bins: usize) -> Option<(f64, f64, Vec<u64>)> {
             continue;
         }
         let (_, top) = Sketch::bin_edges(sk.offset + k as i32);
-        let centre = 2.0 * top / (g + 1.0);
+        let centre = axis(2.0 * top / (g + 1.0));
         let b = ((centre - lo) / width).floor();
         let b = if b < 0.0 {
             0
@@ -54,10 +58,13 @@ const PANEL_W: f64 = 320.0;
 const PANEL_H: f64 = 190.0;
 
 /// risk_histograms.svg: per stage and mode, the tip amplitude of the samples within the
-/// E.1.2 range (or the frequency when no sample is).
+/// E.1.2 range (or the frequency when no sample is); with the resistance quantities, per
+/// stage also the fatigue damage (max over the height of the sum over the modes) on a
+/// log10 axis, since it spans decades.
 pub fn histograms_svg(h: &RiskHeader, a: &Accumulator) -> String {
     let cols = 3usize;
-    let n = h.modes.len().max(1);
+    let stages = if a.resistance { h.stages.len() } else { 0 };
+    let n = (h.modes.len() + stages).max(1);
     let rows_n = n.div_ceil(cols);
     let (w, ht) = (PANEL_W * cols as f64, 50.0 + PANEL_H * rows_n as f64);
     let mut s = String::new();
@@ -70,86 +77,119 @@ pub fn histograms_svg(h: &RiskHeader, a: &Accumulator) -> String {
         r#"<rect width="100%" height="100%" fill="white"/><text x="10" y="24" font-size="15" font-weight="bold">Distribution per stage and mode ({} samples)</text>"#,
         a.samples
     );
-    let c = super::svg::style::colour(0);
     let nq = QUANTITIES.len();
+    let at = |k: usize| {
+        (
+            PANEL_W * (k % cols) as f64 + 40.0,
+            50.0 + PANEL_H * (k / cols) as f64,
+        )
+    };
     for (j, m) in h.modes.iter().enumerate() {
-        let (x0, y0) = (
-            PANEL_W * (j % cols) as f64 + 40.0,
-            50.0 + PANEL_H * (j / cols) as f64,
-        );
         let tip = &a.sketches[j * nq + 3];
         let (sk, what) = if tip.total > tip.zeros {
             (tip, "tip amplitude, m")
         } else {
             (&a.sketches[j * nq], "frequency, Hz")
         };
-        let (pw, ph) = (PANEL_W - 60.0, PANEL_H - 70.0);
-        let _ = writeln!(
-            s,
-            r#"<text x="{x0}" y="{:.0}" font-weight="bold">{} mode {}</text>"#,
-            y0 + 12.0,
-            escape(&m.stage),
-            m.mode
-        );
-        let top = y0 + 20.0;
-        let _ = writeln!(
-            s,
-            r##"<rect x="{x0}" y="{top}" width="{pw}" height="{ph}" fill="none" stroke="#555" stroke-width="0.8"/>"##
-        );
-        if let Some((lo, width, counts)) = histogram(sk, 30) {
-            let max = counts.iter().copied().max().unwrap_or(1).max(1) as f64;
-            let bw = pw / counts.len() as f64;
-            for (b, &cnt) in counts.iter().enumerate() {
-                let bh = ph * cnt as f64 / max;
-                let _ = writeln!(
-                    s,
-                    r#"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="rgb({},{},{})" fill-opacity="0.75" stroke="black" stroke-width="0.3"/>"#,
-                    x0 + b as f64 * bw,
-                    top + ph - bh,
-                    bw,
-                    bh,
-                    c.0,
-                    c.1,
-                    c.2
-                );
-            }
-            let hi = lo + width * counts.len() as f64;
-            let _ = writeln!(
-                s,
-                r#"<text x="{x0}" y="{:.0}">{}</text><text x="{:.0}" y="{:.0}" text-anchor="end">{}</text>"#,
-                top + ph + 14.0,
-                tick(lo),
-                x0 + pw,
-                top + ph + 14.0,
-                tick(hi)
-            );
-        } else {
-            let _ = writeln!(
-                s,
-                r#"<text x="{:.0}" y="{:.0}" text-anchor="middle">no samples</text>"#,
-                x0 + pw / 2.0,
-                top + ph / 2.0
-            );
-        }
-        let share_zero = if sk.total > 0 {
-            sk.zeros as f64 / sk.total as f64
-        } else {
-            0.0
-        };
-        let _ = writeln!(
-            s,
-            r#"<text x="{:.0}" y="{:.0}" text-anchor="middle">{what}{}</text>"#,
-            x0 + pw / 2.0,
-            top + ph + 30.0,
-            if sk.zeros > 0 {
-                format!(" (screened out: {:.1} %)", 100.0 * share_zero)
-            } else {
-                String::new()
-            }
+        let title = format!("{} mode {}", m.stage, m.mode);
+        panel(&mut s, at(j), &title, sk, what, false);
+    }
+    for (st, name) in h.stages.iter().enumerate().take(stages) {
+        let sk = &a.sketches[stage_damage_quantity(h.modes.len(), st)];
+        let title = format!("{name}: fatigue damage");
+        panel(
+            &mut s,
+            at(h.modes.len() + st),
+            &title,
+            sk,
+            "log10 of the stage's damage D",
+            true,
         );
     }
     s.push_str("</svg>\n");
     s
+}
+
+/// One histogram panel at `(x0, y0)`: the non-zero values of `sk` (their log10 when `log`),
+/// the share of zeros (screened-out samples) under the axis.
+fn panel(s: &mut String, (x0, y0): (f64, f64), title: &str, sk: &Sketch, what: &str, log: bool) {
+    let c = super::svg::style::colour(0);
+    let (pw, ph) = (PANEL_W - 60.0, PANEL_H - 70.0);
+    let _ = writeln!(
+        s,
+        r#"<text x="{x0}" y="{:.0}" font-weight="bold">{}</text>"#,
+        y0 + 12.0,
+        escape(title)
+    );
+    let top = y0 + 20.0;
+    let _ = writeln!(
+        s,
+        r##"<rect x="{x0}" y="{top}" width="{pw}" height="{ph}" fill="none" stroke="#555" stroke-width="0.8"/>"##
+    );
+    if let Some((lo, width, counts)) = histogram(sk, 30, log) {
+        let max = counts.iter().copied().max().unwrap_or(1).max(1) as f64;
+        let bw = pw / counts.len() as f64;
+        for (b, &cnt) in counts.iter().enumerate() {
+            let bh = ph * cnt as f64 / max;
+            let _ = writeln!(
+                s,
+                r#"<rect x="{:.1}" y="{:.1}" width="{:.1}" height="{:.1}" fill="rgb({},{},{})" fill-opacity="0.75" stroke="black" stroke-width="0.3"/>"#,
+                x0 + b as f64 * bw,
+                top + ph - bh,
+                bw,
+                bh,
+                c.0,
+                c.1,
+                c.2
+            );
+        }
+        let hi = lo + width * counts.len() as f64;
+        if log && lo < 0.0 && hi > 0.0 {
+            // D = 1, the EN 1992-1-1 6.8.4 limit of the damage sum.
+            let x = x0 + pw * (0.0 - lo) / (hi - lo);
+            let _ = writeln!(
+                s,
+                r##"<line x1="{x:.1}" y1="{top}" x2="{x:.1}" y2="{:.1}" stroke="#b00" stroke-width="1.2" stroke-dasharray="5 3"/><text x="{:.1}" y="{:.0}" fill="#b00">D = 1</text>"##,
+                top + ph,
+                x + 3.0,
+                top + 12.0
+            );
+        }
+        let _ = writeln!(
+            s,
+            r#"<text x="{x0}" y="{:.0}">{}</text><text x="{:.0}" y="{:.0}" text-anchor="end">{}</text>"#,
+            top + ph + 14.0,
+            tick(lo),
+            x0 + pw,
+            top + ph + 14.0,
+            tick(hi)
+        );
+    } else {
+        let _ = writeln!(
+            s,
+            r#"<text x="{:.0}" y="{:.0}" text-anchor="middle">no samples</text>"#,
+            x0 + pw / 2.0,
+            top + ph / 2.0
+        );
+    }
+    let share_zero = if sk.total > 0 {
+        sk.zeros as f64 / sk.total as f64
+    } else {
+        0.0
+    };
+    let _ = writeln!(
+        s,
+        r#"<text x="{:.0}" y="{:.0}" text-anchor="middle">{}{}</text>"#,
+        x0 + pw / 2.0,
+        top + ph + 30.0,
+        escape(what),
+        if sk.zeros > 0 {
+            let zero = if log { "zero" } else { "screened out" };
+            format!(" ({zero}: {:.1} %)", 100.0 * share_zero)
+        } else {
+            String::new()
+        }
+    );
 }
 
 fn tick(v: f64) -> String {
