@@ -18,30 +18,8 @@ use stackwake::case::Case;
 use stackwake::modal::{analyse_case, ModalOptions, StageModes};
 use stackwake::resistance::along_height::{check_stage, FatigueAction, StageResistance};
 
-const BASE: &str = r#"title = "Invented: 120 m stack for the fatigue factors"
-[shell]
-elastic_modulus_gpa = 32.0
-density_kg_m3 = 2500.0
-characteristic_strength_mpa = 35.0
-stations = [
-  { z_m = 0.0,   outer_diameter_m = 12.0, wall_m = 0.40 },
-  { z_m = 120.0, outer_diameter_m = 8.0,  wall_m = 0.25 },
-]
-[[stage]]
-name = "shell"
-lining = false
-[wind]
-reference_speed_m_s = 25.0
-[reinforcement]
-characteristic_strength_mpa = 500.0
-[[reinforcement.zone]]
-from_z_m = 0.0
-to_z_m = 120.0
-outer_ratio = 0.003
-inner_ratio = 0.002
-outer_cover_m = 0.05
-inner_cover_m = 0.05
-"#;
+mod resistance_common;
+use resistance_common::STACK_120M;
 
 /// N*, Delta sigma_Rsk, k1, k2 of EN 1992-1-1 Table 6.3N (straight bars), written here
 /// again so the test shares no constant with the library.
@@ -57,7 +35,7 @@ fn hand_damage(range_pa: f64, cycles: f64, gamma_f: f64, gamma_s: f64) -> f64 {
 }
 
 fn case_with(design: &str) -> Case {
-    let text = format!("{BASE}[design]\n{design}\n");
+    let text = format!("{STACK_120M}[design]\n{design}\n");
     stackwake::input::parse_case(&text, Path::new("."), "fatigue").expect("valid case")
 }
 

@@ -10,33 +10,11 @@ use std::path::Path;
 use stackwake::modal::{analyse_case, ModalOptions};
 use stackwake::resistance::along_height::{node_resistances, NodeResistance};
 
-const BASE: &str = r#"title = "Invented: 120 m stack for the resistance wiring"
-[shell]
-elastic_modulus_gpa = 32.0
-density_kg_m3 = 2500.0
-characteristic_strength_mpa = 35.0
-stations = [
-  { z_m = 0.0,   outer_diameter_m = 12.0, wall_m = 0.40 },
-  { z_m = 120.0, outer_diameter_m = 8.0,  wall_m = 0.25 },
-]
-[[stage]]
-name = "shell"
-lining = false
-[wind]
-reference_speed_m_s = 25.0
-[reinforcement]
-characteristic_strength_mpa = 500.0
-[[reinforcement.zone]]
-from_z_m = 0.0
-to_z_m = 120.0
-outer_ratio = 0.003
-inner_ratio = 0.002
-outer_cover_m = 0.05
-inner_cover_m = 0.05
-"#;
+mod resistance_common;
+use resistance_common::STACK_120M;
 
 fn resistances(extra: &str) -> Vec<NodeResistance> {
-    let text = format!("{BASE}{extra}");
+    let text = format!("{STACK_120M}{extra}");
     let case = stackwake::input::parse_case(&text, Path::new("."), "wiring").expect("valid case");
     let stages = analyse_case(
         &case,
