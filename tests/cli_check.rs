@@ -51,6 +51,9 @@ fn no_criteria_exits_3_with_contract_columns() {
         loads.lines().next().unwrap(),
         "stage,mode,z_m,inertia_force_n_m,shear_n,moment_nm,stress_pa"
     );
+    // The note's verdict at a glance says the same as the exit code.
+    let note = std::fs::read_to_string(out.join("report.html")).unwrap();
+    assert!(note.contains("Overall: nothing is judged: the case gives no criteria (exit code 3)."));
 }
 
 #[test]

@@ -282,3 +282,59 @@ fn every_intermediate_value_of_every_method_is_tabulated() {
         );
     }
 }
+
+#[test]
+fn verdict_at_a_glance_agrees_with_the_results_and_the_exit_code() {
+    // Project contract (no outside reference): section 1.1 lists every stage with its
+    // largest utilisation, its fatigue damage and its vortex verdict as computed, marks a
+    // stage "fails" exactly when one of them exceeds its limit, and names the exit code.
+    let html = demo_html();
+    let doc = parse(&html);
+    let results = analyse(stackwake::input::demo_case(), CheckOptions::default()).unwrap();
+    let r = results
+        .resistance
+        .as_ref()
+        .expect("the demo has [reinforcement]");
+    let h = doc
+        .descendants()
+        .find(|n| {
+            n.has_tag_name("h3")
+                && n.descendants()
+                    .filter_map(|d| d.text())
+                    .collect::<String>()
+                    .starts_with("1.1 Verdict at a glance")
+        })
+        .expect("section 1.1");
+    let table = h
+        .next_siblings()
+        .skip(1)
+        .find(|n| n.is_element())
+        .filter(|n| n.has_tag_name("table"))
+        .expect("a table follows 1.1");
+    let rows: Vec<Vec<String>> = table
+        .descendants()
+        .filter(|n| n.has_tag_name("tr"))
+        .map(|tr| {
+            tr.children()
+                .filter(|c| c.has_tag_name("td"))
+                .map(|td| td.text().unwrap_or("").to_string())
+                .collect::<Vec<_>>()
+        })
+        .filter(|r| !r.is_empty())
+        .collect();
+    assert_eq!(rows.len(), results.vortex.stages.len());
+    for ((row, sv), sr) in rows.iter().zip(&results.vortex.stages).zip(&r.stages) {
+        assert_eq!(row[0], sv.stage);
+        let g = sr.governing.as_ref().unwrap();
+        assert!(
+            row[1].starts_with(&format!("{:.3}", g.utilisation)),
+            "{row:?}"
+        );
+        let vortex_fails = sv.modes.iter().any(|m| m.verdict.is_exceeds());
+        assert_eq!(row[3].starts_with("exceeds"), vortex_fails, "{row:?}");
+        let fails = vortex_fails || g.utilisation > 1.0 || sr.damage > 1.0;
+        assert_eq!(row[4], if fails { "fails" } else { "passes" }, "{row:?}");
+    }
+    // The demo fails on purpose (README): exit code 1, said in the note.
+    assert!(html.contains("Overall: a check fails (exit code 1)."));
+}

@@ -8,7 +8,7 @@ use crate::report::ReportInput;
 use crate::wind::{ModeVortex, StageClimate, StageVortex};
 
 /// The stage's own verdict in a word: which modes exceed, or whether it passes.
-fn stage_verdict(s: &StageVortex) -> String {
+pub(super) fn stage_verdict(s: &StageVortex) -> String {
     let failing: Vec<String> = s
         .modes
         .iter()

@@ -22,6 +22,7 @@ mod modes;
 pub(crate) mod page_style;
 mod remedies;
 mod resistance;
+mod summary;
 mod title_block;
 mod verdicts;
 
@@ -55,7 +56,9 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
     for c in CAUTIONS {
         let _ = writeln!(o, "<li>{}</li>", html_escape(c));
     }
-    o.push_str("</ul></div>\n<h2>2 Inputs</h2>\n");
+    o.push_str("</ul></div>\n<h3>1.1 Verdict at a glance</h3>\n");
+    summary::write(&mut o, input);
+    o.push_str("<h2>2 Inputs</h2>\n");
     inputs::write(&mut o, input);
     resistance::write_inputs(&mut o, input);
     put(&mut o, "shell.svg");
