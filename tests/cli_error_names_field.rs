@@ -199,7 +199,7 @@ fn inputs_that_made_the_solver_give_up_are_refused_by_name() {
         &args,
         &[
             "base.rotational_stiffness_gnm_per_rad = 1e-30: is",
-            "must be between 1e-6 and 1e14 times",
+            "must be between 0.0001 and 1e14 times",
         ],
     );
     refused(

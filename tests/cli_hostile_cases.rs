@@ -450,7 +450,7 @@ fn an_absurdly_soft_foundation_is_refused_by_name_and_writes_nothing() {
         assert!(stderr.contains(key), "{stderr}");
     }
     assert!(
-        stderr.contains("must be between 1e-6 and 1e14 times"),
+        stderr.contains("must be between 0.0001 and 1e14 times"),
         "{stderr}"
     );
     assert!(!stderr.contains("eigen-solver"), "{stderr}");
