@@ -7,6 +7,7 @@ pub mod finite;
 pub mod json;
 pub mod note;
 pub mod risk;
+mod risk_note;
 pub mod risk_plots;
 pub mod scale_html;
 pub mod scale_plot;

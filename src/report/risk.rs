@@ -14,7 +14,6 @@ use std::fmt::Write as _;
 use serde::Serialize;
 
 use super::csv::safe_text;
-use super::note::html_escape as escape;
 use super::ReportError;
 use crate::risk::kernel::ModeSample;
 use crate::risk::stats::RELATIVE_ACCURACY;
@@ -24,6 +23,7 @@ use crate::risk::{
     TOTAL_DAMAGE_QUANTITY,
 };
 
+pub use super::risk_note::risk_html;
 pub use super::risk_plots::{histograms_svg, influence_svg};
 
 pub(crate) fn num(v: f64) -> String {
@@ -523,122 +523,5 @@ pub fn stdout_summary(h: &RiskHeader, a: &Accumulator) -> String {
     s.push_str(
         "Screening tool: results must be checked by a licensed engineer against the local code and National Annex.\n",
     );
-    s
-}
-
-/// risk.html: the probabilistic screening note (self-contained; the plots inline).
-pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> String {
-    let mut s =
-        String::from("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
-    let _ = writeln!(
-        s,
-        "<title>Lock-in risk: {}</title>\n<style>{}</style>\n</head>\n<body>",
-        escape(&h.title),
-        super::note::page_style::CSS
-    );
-    let _ = writeln!(s, "<h1>Lock-in risk screening: {}</h1>", escape(&h.title));
-    let _ = writeln!(
-        s,
-        "<p>Case file {} (SHA-256 <code>{}</code>), {} samples, seed {}, governing method {}.</p>",
-        escape(&h.case_file),
-        escape(&h.case_sha256),
-        h.samples,
-        h.seed,
-        escape(&h.method)
-    );
-    s.push_str("<h2>Cautions</h2>\n<ul>\n");
-    for c in super::CAUTIONS {
-        let _ = writeln!(s, "<li>{}</li>", escape(c));
-    }
-    s.push_str(
-        "<li>Probabilities are conditional on the design wind of the case and on the input \
-         distributions below; they are not annual failure probabilities.</li>\n</ul>\n",
-    );
-    s.push_str("<h2>Uncertain inputs</h2>\n<table><thead><tr><th>key</th><th>distribution</th><th>case value</th><th>modes</th></tr></thead><tbody>\n");
-    if h.inputs.is_empty() {
-        s.push_str("<tr><td colspan=\"4\">none: every sample is the case itself</td></tr>\n");
-    }
-    for i in &h.inputs {
-        let _ = writeln!(
-            s,
-            "<tr><td>{}</td><td>{}</td><td class=\"n\">{}</td><td>{}</td></tr>",
-            escape(&i.key),
-            escape(&i.described),
-            i.case_value.map_or_else(|| "default".to_string(), num),
-            if i.keeps_modes {
-                "reused (scaled)"
-            } else {
-                "re-solved per sample"
-            }
-        );
-    }
-    s.push_str("</tbody></table>\n");
-    s.push_str("<h2>Rank correlations</h2>\n");
-    if h.correlations.is_empty() {
-        s.push_str("<p>None: the inputs are sampled independently.</p>\n");
-    } else {
-        s.push_str("<table><thead><tr><th>keys</th><th>Spearman rho_s</th><th>normal-score R = 2 sin(pi rho_s / 6)</th></tr></thead><tbody>\n");
-        for c in &h.correlations {
-            let _ = writeln!(
-                s,
-                "<tr><td>{} / {}</td><td class=\"n\">{}</td><td class=\"n\">{:.6}</td></tr>",
-                escape(&c.keys[0]),
-                escape(&c.keys[1]),
-                num(c.spearman),
-                c.normal_score_correlation
-            );
-        }
-        let _ = writeln!(
-            s,
-            "</tbody></table>\n<p>{}.</p>",
-            escape(CORRELATION_METHOD)
-        );
-    }
-    let influence = influence_method(h);
-    s.push_str("<h2>Method</h2>\n<ul>\n");
-    if h.resistance {
-        let _ = writeln!(s, "<li>{}</li>", escape(RESISTANCE_METHOD));
-    }
-    for line in [
-        "Each sample is checked like <code>check</code>: the same modes (re-solved only when a \
-         sample changes mass, geometry or springs; otherwise the case's modes with frequencies \
-         scaled by the square root of the stiffness factor), the EN 1991-1-4 Annex E chain of \
-         the governing method and the case's criteria.",
-        "Sample i draws from a counter-based stream of (seed, i), so any shard or thread count \
-         gives the same samples; statistics are exact integer counts and sums, merged exactly.",
-        PERCENTILE_METHOD,
-        influence.as_str(),
-        "Standard error of a probability p from N samples: sqrt(p (1 - p) / N).",
-        "Tip amplitude and stress are 0 in samples screened out by E.1.2 (v_crit &gt; 1.25 v_m).",
-    ] {
-        let _ = writeln!(s, "<li>{line}</li>");
-    }
-    let _ = writeln!(
-        s,
-        "</ul>\n<p>{} valid samples, {} invalid (left out).</p>",
-        a.samples, a.invalid
-    );
-    s.push_str("<h2>Results per stage and mode</h2>\n<table><thead><tr><th>stage</th><th>mode</th><th>quantity</th><th>mean</th><th>p05</th><th>p50</th><th>p95</th><th>P(exceeding)</th><th>standard error</th></tr></thead><tbody>\n");
-    let o = |v: Option<f64>| v.map(|x| format!("{x:.5}")).unwrap_or_default();
-    for r in rows(h, a) {
-        let _ = writeln!(
-            s,
-            "<tr><td>{}</td><td>{}</td><td>{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td><td class=\"n\">{}</td></tr>",
-            escape(&r.stage),
-            escape(&r.mode),
-            escape(&r.quantity),
-            o(r.mean),
-            o(r.p05),
-            o(r.p50),
-            o(r.p95),
-            o(r.probability_exceeding),
-            r.standard_error.map(|x| format!("{x:.2e}")).unwrap_or_default()
-        );
-    }
-    s.push_str("</tbody></table>\n<h2>Distributions</h2>\n");
-    s.push_str(hist);
-    s.push_str("<h2>What drives the probability</h2>\n");
-    s.push_str(tornado);
-    s.push_str("</body>\n</html>\n");
     s
 }
