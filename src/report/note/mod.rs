@@ -52,7 +52,14 @@ pub fn render(input: &ReportInput, plots: &[Plot], date: &str) -> String {
         page_style::CSS
     );
     title_block::write(&mut o, input.case, date);
-    o.push_str("<h2>1 Scope and cautions</h2>\n<p>This note screens the stack for across-wind vortex-shedding lock-in in the first modes of every construction stage and quantifies the response where lock-in can occur.</p>\n<div class=\"cautions\"><ul>\n");
+    o.push_str("<h2>1 Scope and cautions</h2>\n<p>This note screens the stack for across-wind vortex-shedding lock-in in the first modes of every construction stage and quantifies the response where lock-in can occur");
+    if input.along.is_some() {
+        o.push_str("; it gives the along-wind design action of EN 1991-1-4 and the vortex case combined with it");
+    }
+    if input.resistance.is_some() {
+        o.push_str("; it checks the reinforced-concrete shell's moment resistance and the fatigue of its vertical bars (EN 1992-1-1)");
+    }
+    o.push_str(".</p>\n<div class=\"cautions\"><ul>\n");
     for c in CAUTIONS {
         let _ = writeln!(o, "<li>{}</li>", html_escape(c));
     }
