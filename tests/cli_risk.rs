@@ -149,6 +149,10 @@ fn resistance_quantities_are_in_the_outputs_and_need_reinforcement() {
         ));
     let hist = std::fs::read_to_string(out.join("risk_histograms.svg")).unwrap();
     assert!(hist.contains("shell only: fatigue damage") && hist.contains("D = 1"));
+    assert!(
+        hist.contains("shell only mode 1: vortex utilisation"),
+        "{hist}"
+    );
     let note = std::fs::read_to_string(out.join("risk.html")).unwrap();
     assert!(note.contains("vortex_utilisation") && note.contains("EN 1992-1-1"));
     // Without the flag: no resistance rows.

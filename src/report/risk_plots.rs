@@ -1,7 +1,8 @@
 //! Plots of the risk note: `risk_histograms.svg` (per stage and mode, the distribution of the
 //! tip amplitude of the samples inside the E.1.2 range, or of the frequency when none is,
 //! drawn from the quantile sketch's bins, each counted at its centre; with the resistance
-//! quantities also each stage's fatigue damage on a log10 axis with the D = 1 limit) and
+//! quantities also each stage's fatigue damage on a log10 axis with the D = 1 limit, and the
+//! vortex utilisation of every mode some sample brings into lock-in, with its limit 1) and
 //! `risk_influence.svg` (a tornado per stage: the rank correlation of each input with the
 //! stage's headline probability, largest first). Hand-written SVG in the project's palette;
 //! bars carry their value as text, so the plots read in greyscale.
@@ -12,7 +13,9 @@ use std::fmt::Write as _;
 use super::note::html_escape as escape;
 use super::risk::{headline_events, influence_ranking, num};
 use crate::risk::stats::{Sketch, RELATIVE_ACCURACY};
-use crate::risk::{stage_damage_quantity, Accumulator, RiskHeader, QUANTITIES};
+use crate::risk::{
+    resistance_quantity, stage_damage_quantity, Accumulator, RiskHeader, QUANTITIES,
+};
 
 /// Histogram counts of the non-zero values of a sketch over `bins` equal bins between its
 /// 0.1 % and 99.9 % points: (low edge, width, counts).
@@ -64,7 +67,17 @@ const PANEL_H: f64 = 190.0;
 pub fn histograms_svg(h: &RiskHeader, a: &Accumulator) -> String {
     let cols = 3usize;
     let stages = if a.resistance { h.stages.len() } else { 0 };
-    let n = (h.modes.len() + stages).max(1);
+    // With the resistance quantities: the vortex utilisation of every mode some sample
+    // brings into lock-in (EN 1992-1-1 6.1, limit 1).
+    let utilisation: Vec<(usize, &Sketch)> = if a.resistance {
+        (0..h.modes.len())
+            .map(|j| (j, &a.sketches[resistance_quantity(h.modes.len(), j, 0)]))
+            .filter(|(_, sk)| sk.total > sk.zeros)
+            .collect()
+    } else {
+        Vec::new()
+    };
+    let n = (h.modes.len() + stages + utilisation.len()).max(1);
     let rows_n = n.div_ceil(cols);
     let (w, ht) = (PANEL_W * cols as f64, 50.0 + PANEL_H * rows_n as f64);
     let mut s = String::new();
@@ -92,11 +105,12 @@ pub fn histograms_svg(h: &RiskHeader, a: &Accumulator) -> String {
             (&a.sketches[j * nq], "frequency, Hz")
         };
         let title = format!("{} mode {}", m.stage, m.mode);
-        panel(&mut s, at(j), &title, sk, what, false);
+        panel(&mut s, at(j), &title, sk, what, false, None);
     }
     for (st, name) in h.stages.iter().enumerate().take(stages) {
         let sk = &a.sketches[stage_damage_quantity(h.modes.len(), st)];
         let title = format!("{name}: fatigue damage");
+        // D = 1: the EN 1992-1-1 6.8.4 limit of the damage sum (0 on the log10 axis).
         panel(
             &mut s,
             at(h.modes.len() + st),
@@ -104,6 +118,20 @@ pub fn histograms_svg(h: &RiskHeader, a: &Accumulator) -> String {
             sk,
             "log10 of the stage's damage D",
             true,
+            Some((0.0, "D = 1")),
+        );
+    }
+    for (k, &(j, sk)) in utilisation.iter().enumerate() {
+        let m = &h.modes[j];
+        let title = format!("{} mode {}: vortex utilisation", m.stage, m.mode);
+        panel(
+            &mut s,
+            at(h.modes.len() + stages + k),
+            &title,
+            sk,
+            "M_Ed / M_Rd, largest over the height",
+            false,
+            Some((1.0, "limit 1")),
         );
     }
     s.push_str("</svg>\n");
@@ -112,7 +140,16 @@ pub fn histograms_svg(h: &RiskHeader, a: &Accumulator) -> String {
 
 /// One histogram panel at `(x0, y0)`: the non-zero values of `sk` (their log10 when `log`),
 /// the share of zeros (screened-out samples) under the axis.
-fn panel(s: &mut String, (x0, y0): (f64, f64), title: &str, sk: &Sketch, what: &str, log: bool) {
+/// `limit` (in the axis' units) draws the failure limit where it falls inside the axis.
+fn panel(
+    s: &mut String,
+    (x0, y0): (f64, f64),
+    title: &str,
+    sk: &Sketch,
+    what: &str,
+    log: bool,
+    limit: Option<(f64, &str)>,
+) {
     let c = super::svg::style::colour(0);
     let (pw, ph) = (PANEL_W - 60.0, PANEL_H - 70.0);
     let _ = writeln!(
@@ -144,15 +181,15 @@ fn panel(s: &mut String, (x0, y0): (f64, f64), title: &str, sk: &Sketch, what: &
             );
         }
         let hi = lo + width * counts.len() as f64;
-        if log && lo < 0.0 && hi > 0.0 {
-            // D = 1, the EN 1992-1-1 6.8.4 limit of the damage sum.
-            let x = x0 + pw * (0.0 - lo) / (hi - lo);
+        if let Some((at, label)) = limit.filter(|&(at, _)| lo < at && at < hi) {
+            let x = x0 + pw * (at - lo) / (hi - lo);
             let _ = writeln!(
                 s,
-                r##"<line x1="{x:.1}" y1="{top}" x2="{x:.1}" y2="{:.1}" stroke="#b00" stroke-width="1.2" stroke-dasharray="5 3"/><text x="{:.1}" y="{:.0}" fill="#b00">D = 1</text>"##,
+                r##"<line x1="{x:.1}" y1="{top}" x2="{x:.1}" y2="{:.1}" stroke="#b00" stroke-width="1.2" stroke-dasharray="5 3"/><text x="{:.1}" y="{:.0}" fill="#b00">{}</text>"##,
                 top + ph,
                 x + 3.0,
-                top + 12.0
+                top + 12.0,
+                escape(label)
             );
         }
         let _ = writeln!(
