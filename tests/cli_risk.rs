@@ -330,3 +330,31 @@ fn kept_samples_carry_the_stage_and_total_damage() {
     }
     assert!(checked > 0, "no sample had fatigue damage");
 }
+
+#[test]
+fn a_partial_of_another_format_is_refused_by_its_format() {
+    // Project contract: risk-merge names the format of a partial written by another
+    // stackwake version instead of failing on a field it lacks.
+    let dir = tempfile::tempdir().unwrap();
+    let case = case_with(dir.path(), "c.toml", FAST);
+    let d = dir.path().join("s1");
+    risk(&case, &["--samples", "50", "--shard", "1/1"], &d).success();
+    let file = d.join("risk_partial.json");
+    let text = std::fs::read_to_string(&file).unwrap();
+    let old = text.replace(stackwake::risk::PARTIAL_FORMAT, "stackwake-risk-partial-1");
+    assert_ne!(old, text);
+    // An older layout also lacks the accumulator's layout fields.
+    let old = old.replace("\"mode_entries\"", "\"unknown_a\"");
+    std::fs::write(&file, old).unwrap();
+    Command::cargo_bin("stackwake")
+        .unwrap()
+        .arg("risk-merge")
+        .arg(&d)
+        .arg("--out")
+        .arg(dir.path().join("m"))
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains(
+            "format \"stackwake-risk-partial-1\", this stackwake reads \"stackwake-risk-partial-2\"",
+        ));
+}

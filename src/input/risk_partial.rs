@@ -35,13 +35,18 @@ pub fn read(path: &Path) -> Result<Partial, InputError> {
         path: path.to_path_buf(),
         reason,
     };
-    let p: Partial = serde_json::from_slice(&bytes).map_err(|e| bad(e.to_string()))?;
-    if p.header.format != PARTIAL_FORMAT {
-        return Err(bad(format!(
-            "format {:?}, this stackwake reads {PARTIAL_FORMAT:?}",
-            p.header.format
-        )));
+    // The format tag first, so a partial of another stackwake version is named as such
+    // rather than failing on a field it lacks.
+    let value: serde_json::Value =
+        serde_json::from_slice(&bytes).map_err(|e| bad(e.to_string()))?;
+    if let Some(format) = value.pointer("/header/format").and_then(|f| f.as_str()) {
+        if format != PARTIAL_FORMAT {
+            return Err(bad(format!(
+                "format {format:?}, this stackwake reads {PARTIAL_FORMAT:?}"
+            )));
+        }
     }
+    let p: Partial = serde_json::from_value(value).map_err(|e| bad(e.to_string()))?;
     let modes = p.header.modes.len();
     let a = &p.accumulator;
     // The layout an accumulator of this header has (sizes only; no samples).

@@ -397,8 +397,9 @@ pub fn method_uses_kernel(m: VortexMethod) -> bool {
     ModeKernel::supported(m)
 }
 
-/// Format tag of partial results.
-pub const PARTIAL_FORMAT: &str = "stackwake-risk-partial-1";
+/// Format tag of partial results (2: the accumulator carries its layout and, with the
+/// resistance quantities, the stage and total fatigue damage).
+pub const PARTIAL_FORMAT: &str = "stackwake-risk-partial-2";
 
 /// One input as the outputs describe it.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
