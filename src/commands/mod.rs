@@ -3,6 +3,7 @@
 //! failed; the binary maps that to exit codes.
 
 pub mod check;
+mod check_tables;
 pub mod modes;
 pub mod new;
 pub mod resistance;
