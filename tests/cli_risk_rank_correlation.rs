@@ -17,7 +17,7 @@ use assert_cmd::Command;
 
 mod risk_common;
 use predicates::prelude::*;
-use risk_common::{case_with, risk, FAST};
+use risk_common::{case_with, risk, spearman, FAST};
 
 const CORRELATIONS: &str = r#"
 [[rank_correlation]]
@@ -32,29 +32,6 @@ coefficient = 0.5
 keys = ["uncertainty.c_lat_factor", "vortex.log_decrement"]
 coefficient = 0.4
 "#;
-
-fn ranks(x: &[f64]) -> Vec<f64> {
-    let mut idx: Vec<usize> = (0..x.len()).collect();
-    idx.sort_by(|&a, &b| x[a].total_cmp(&x[b]));
-    let mut r = vec![0.0; x.len()];
-    for (k, &i) in idx.iter().enumerate() {
-        r[i] = k as f64;
-    }
-    r
-}
-
-fn spearman(x: &[f64], y: &[f64]) -> f64 {
-    let (rx, ry) = (ranks(x), ranks(y));
-    let n = x.len() as f64;
-    let (mx, my) = (rx.iter().sum::<f64>() / n, ry.iter().sum::<f64>() / n);
-    let (mut sxy, mut sxx, mut syy) = (0.0, 0.0, 0.0);
-    for (a, b) in rx.iter().zip(&ry) {
-        sxy += (a - mx) * (b - my);
-        sxx += (a - mx) * (a - mx);
-        syy += (b - my) * (b - my);
-    }
-    sxy / (sxx * syy).sqrt()
-}
 
 /// The input columns of risk_samples.csv, one value per sample.
 fn sampled_inputs(path: &Path, keys: &[&str]) -> Vec<Vec<f64>> {

@@ -53,3 +53,28 @@ pub fn risk(case: &Path, args: &[&str], out: &Path) -> assert_cmd::assert::Asser
         .arg(out)
         .assert()
 }
+
+/// Ranks 0..n-1 (the values are continuous: no ties).
+pub fn ranks(x: &[f64]) -> Vec<f64> {
+    let mut idx: Vec<usize> = (0..x.len()).collect();
+    idx.sort_by(|&a, &b| x[a].total_cmp(&x[b]));
+    let mut r = vec![0.0; x.len()];
+    for (k, &i) in idx.iter().enumerate() {
+        r[i] = k as f64;
+    }
+    r
+}
+
+/// Spearman's rho: Pearson correlation of the ranks.
+pub fn spearman(x: &[f64], y: &[f64]) -> f64 {
+    let (rx, ry) = (ranks(x), ranks(y));
+    let n = x.len() as f64;
+    let (mx, my) = (rx.iter().sum::<f64>() / n, ry.iter().sum::<f64>() / n);
+    let (mut sxy, mut sxx, mut syy) = (0.0, 0.0, 0.0);
+    for (a, b) in rx.iter().zip(&ry) {
+        sxy += (a - mx) * (b - my);
+        sxx += (a - mx) * (a - mx);
+        syy += (b - my) * (b - my);
+    }
+    sxy / (sxx * syy).sqrt()
+}
