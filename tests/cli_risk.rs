@@ -10,18 +10,7 @@ use assert_cmd::Command;
 
 mod risk_common;
 use predicates::prelude::*;
-use risk_common::{case_with, risk, FAST};
-
-/// FAST with rank correlations (Gaussian copula): still per sample, so still shardable.
-const FAST_CORRELATIONS: &str = r#"
-[[rank_correlation]]
-keys = ["vortex.log_decrement", "vortex.strouhal"]
-coefficient = -0.3
-
-[[rank_correlation]]
-keys = ["wind.reference_speed_m_s", "vortex.strouhal"]
-coefficient = 0.5
-"#;
+use risk_common::{case_with, risk, CORRELATIONS, FAST};
 
 const RESOLVE: &str = r#"
 [[uncertain]]
@@ -117,7 +106,7 @@ fn shards_of_fast_samples_merge_to_the_single_run() {
 
 #[test]
 fn shards_of_rank_correlated_samples_merge_to_the_single_run() {
-    shards_merge_to_the_single_run(&format!("{FAST}\n{FAST_CORRELATIONS}"), "20000", true);
+    shards_merge_to_the_single_run(&format!("{FAST}\n{CORRELATIONS}"), "20000", true);
 }
 
 #[test]

@@ -17,21 +17,7 @@ use assert_cmd::Command;
 
 mod risk_common;
 use predicates::prelude::*;
-use risk_common::{case_with, risk, spearman, FAST};
-
-const CORRELATIONS: &str = r#"
-[[rank_correlation]]
-keys = ["vortex.log_decrement", "vortex.strouhal"]
-coefficient = -0.3
-
-[[rank_correlation]]
-keys = ["wind.reference_speed_m_s", "vortex.strouhal"]
-coefficient = 0.5
-
-[[rank_correlation]]
-keys = ["uncertainty.c_lat_factor", "vortex.log_decrement"]
-coefficient = 0.4
-"#;
+use risk_common::{case_with, risk, spearman, CORRELATIONS, FAST};
 
 /// The input columns of risk_samples.csv, one value per sample.
 fn sampled_inputs(path: &Path, keys: &[&str]) -> Vec<Vec<f64>> {

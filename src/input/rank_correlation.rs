@@ -146,19 +146,8 @@ fn read_entry(
     issues: &mut Vec<ValidationIssue>,
 ) -> Option<RankPair> {
     let path = format!("rank_correlation[{i}]");
-    let Value::Table(t) = v else {
-        issues.push(ValidationIssue::new(path, render(v), "expected a table"));
-        return None;
-    };
     let before = issues.len();
-    for k in t.keys() {
-        if !KEYS.contains(&k.as_str()) {
-            issues.push(ValidationIssue::key(
-                format!("{path}.{k}"),
-                format!("unknown key; valid keys: {}", KEYS.join(", ")),
-            ));
-        }
-    }
+    let t = super::uncertain::entry_table(&path, v, KEYS, issues)?;
     let want_keys = "expected two [[uncertain]] keys, e.g. [\"shell.elastic_modulus_gpa\", \
                      \"vortex.log_decrement\"]";
     let index = |s: &str| entries.iter().position(|e| e.key == s.trim());

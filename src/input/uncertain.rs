@@ -104,21 +104,33 @@ fn number(t: &Table, path: &str, name: &str, issues: &mut Vec<ValidationIssue>) 
     }
 }
 
-fn read_entry(i: usize, v: &Value, issues: &mut Vec<ValidationIssue>) -> Option<UncertainEntry> {
-    let path = format!("uncertain[{i}]");
+/// Entry `path` of a `[[key]]` array as a table, with an issue for each key not in `known`
+/// (`None`, with an issue, when it is not a table).
+pub(crate) fn entry_table<'a>(
+    path: &str,
+    v: &'a Value,
+    known: &[&str],
+    issues: &mut Vec<ValidationIssue>,
+) -> Option<&'a Table> {
     let Value::Table(t) = v else {
         issues.push(ValidationIssue::new(path, render(v), "expected a table"));
         return None;
     };
-    let before = issues.len();
     for k in t.keys() {
-        if !KEYS.contains(&k.as_str()) {
+        if !known.contains(&k.as_str()) {
             issues.push(ValidationIssue::key(
                 format!("{path}.{k}"),
-                format!("unknown key; valid keys: {}", KEYS.join(", ")),
+                format!("unknown key; valid keys: {}", known.join(", ")),
             ));
         }
     }
+    Some(t)
+}
+
+fn read_entry(i: usize, v: &Value, issues: &mut Vec<ValidationIssue>) -> Option<UncertainEntry> {
+    let path = format!("uncertain[{i}]");
+    let before = issues.len();
+    let t = entry_table(&path, v, KEYS, issues)?;
     let key = match t.get("key") {
         Some(Value::String(s)) if !s.trim().is_empty() => Some(s.trim().to_string()),
         Some(other) => {

@@ -35,6 +35,22 @@ cov = 0.12
 truncate_high = 60.0
 "#;
 
+/// Rank correlations between three of [`FAST`]'s inputs (Gaussian copula: still per
+/// sample, so still shardable).
+pub const CORRELATIONS: &str = r#"
+[[rank_correlation]]
+keys = ["vortex.log_decrement", "vortex.strouhal"]
+coefficient = -0.3
+
+[[rank_correlation]]
+keys = ["wind.reference_speed_m_s", "vortex.strouhal"]
+coefficient = 0.5
+
+[[rank_correlation]]
+keys = ["uncertainty.c_lat_factor", "vortex.log_decrement"]
+coefficient = 0.4
+"#;
+
 /// Writes the built-in demo followed by `extra` to `dir/name`.
 pub fn case_with(dir: &Path, name: &str, extra: &str) -> PathBuf {
     let p = dir.join(name);
