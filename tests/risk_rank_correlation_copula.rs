@@ -17,7 +17,7 @@ use stackwake::case::Case;
 use stackwake::input;
 use stackwake::risk::correlation::{Copula, RankPair};
 use stackwake::risk::distribution::{Distribution, Family};
-use stackwake::risk::{role_of, Engine, UncertainInput};
+use stackwake::risk::{role_of, Engine, Scaling, UncertainInput};
 
 mod risk_common;
 use risk_common::spearman;
@@ -29,7 +29,7 @@ fn no_full(_: &[f64]) -> Result<Case, String> {
 fn input(key: &str, d: Distribution, case_value: f64) -> UncertainInput {
     UncertainInput {
         key: key.into(),
-        role: role_of(key, true),
+        role: role_of(key, Scaling::Whole),
         distribution: d,
         described: String::new(),
         case_value,

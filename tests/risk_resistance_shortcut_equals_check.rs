@@ -18,7 +18,7 @@ use stackwake::case::Case;
 use stackwake::input::{self, keypath};
 use stackwake::risk::distribution::Distribution;
 use stackwake::risk::kernel::ModeSample;
-use stackwake::risk::{case_modes, role_of, Engine, UncertainInput};
+use stackwake::risk::{case_modes, role_of, Engine, Scaling, UncertainInput};
 
 const KEYS: [(&str, f64); 5] = [
     ("shell.elastic_modulus_gpa", 32.0),
@@ -61,7 +61,7 @@ fn fixed_inputs(keys: &[(&str, f64)]) -> Vec<UncertainInput> {
     keys.iter()
         .map(|&(k, v)| UncertainInput {
             key: k.into(),
-            role: role_of(k, true),
+            role: role_of(k, Scaling::Whole),
             distribution: Distribution::uniform(v, v),
             described: String::new(),
             case_value: v,

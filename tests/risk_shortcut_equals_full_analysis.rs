@@ -16,7 +16,7 @@ use stackwake::risk::case_modes;
 use stackwake::risk::kernel::{self, SampleInputs};
 
 /// The demo with a fixed base: base springs do not scale with E, so with them E and the
-/// stiffness factor re-solve (tested in `springs_make_stiffness_keys_re_solve`).
+/// stiffness factor take the stiffness family (tests/risk_stiffness_family_equals_full_analysis.rs).
 fn edited(method: &str, edits: &[(&str, f64)]) -> stackwake::case::Case {
     let mut t = input::parse_case_text(input::DEMO_CASE_TOML, "demo").unwrap();
     t.remove("base");
@@ -139,23 +139,43 @@ fn shortcut_samples_equal_the_full_analysis_for(method: &str) {
 }
 
 #[test]
-fn springs_make_stiffness_keys_re_solve() {
-    use stackwake::risk::{role_of, Role};
+fn springs_make_stiffness_keys_take_the_family_and_zones_re_solve() {
+    use stackwake::risk::{role_of, Role, Scaling};
+    assert_eq!(Scaling::of(false, false), Scaling::Whole);
+    assert_eq!(Scaling::of(false, true), Scaling::Shell);
+    assert_eq!(Scaling::of(true, false), Scaling::Partial);
     assert_eq!(
-        role_of("shell.elastic_modulus_gpa", true),
+        role_of("shell.elastic_modulus_gpa", Scaling::Whole),
         Role::ElasticModulus
     );
-    assert_eq!(role_of("shell.elastic_modulus_gpa", false), Role::Resolve);
     assert_eq!(
-        role_of("stage[2].stiffness_factor", true),
-        Role::StageStiffness(2)
+        role_of("shell.elastic_modulus_gpa", Scaling::Shell),
+        Role::ShellModulus
     );
-    assert_eq!(role_of("stage[2].stiffness_factor", false), Role::Resolve);
     assert_eq!(
-        role_of("lining[0].mass_per_area_kg_m2", true),
+        role_of("shell.elastic_modulus_gpa", Scaling::Partial),
         Role::Resolve
     );
-    assert_eq!(role_of("vortex.log_decrement", false), Role::LogDecrement);
+    assert_eq!(
+        role_of("stage[2].stiffness_factor", Scaling::Whole),
+        Role::StageStiffness(2)
+    );
+    assert_eq!(
+        role_of("stage[2].stiffness_factor", Scaling::Shell),
+        Role::ShellStageStiffness(2)
+    );
+    assert_eq!(
+        role_of("stage[2].stiffness_factor", Scaling::Partial),
+        Role::Resolve
+    );
+    assert_eq!(
+        role_of("lining[0].mass_per_area_kg_m2", Scaling::Whole),
+        Role::Resolve
+    );
+    assert_eq!(
+        role_of("vortex.log_decrement", Scaling::Partial),
+        Role::LogDecrement
+    );
     // The reason: with the demo's springs, E x 1.13 does not give f x sqrt(1.13).
     let mut t = input::parse_case_text(input::DEMO_CASE_TOML, "demo").unwrap();
     let f0 = case_modes(&input::parse_case_table(t.clone(), Path::new(""), "demo").unwrap())

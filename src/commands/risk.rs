@@ -139,17 +139,26 @@ fn inputs_of(
                 },
             )?;
         }
-        let role = role_of(&e.key, !zones && !springs);
+        let role = role_of(&e.key, risk::Scaling::of(zones, springs));
         let case_value = match role {
             Role::CLatFactor => 1.0,
             _ => match keypath::get_number(table, &e.key) {
                 Ok(v) => v,
-                Err(_) if matches!(role, Role::StageStiffness(_)) => 1.0,
+                Err(_)
+                    if matches!(role, Role::StageStiffness(_) | Role::ShellStageStiffness(_)) =>
+                {
+                    1.0
+                }
                 Err(_) => f64::NAN,
             },
         };
-        if matches!(role, Role::ElasticModulus | Role::StageStiffness(_))
-            && (case_value.is_nan() || case_value <= 0.0)
+        if matches!(
+            role,
+            Role::ElasticModulus
+                | Role::StageStiffness(_)
+                | Role::ShellModulus
+                | Role::ShellStageStiffness(_)
+        ) && (case_value.is_nan() || case_value <= 0.0)
         {
             return Err(invalid(
                 label,
@@ -423,9 +432,12 @@ fn header(case: &crate::case::Case, engine: &Engine, o: &RiskOptions) -> Result<
                 key: i.key.clone(),
                 described: i.described.clone(),
                 case_value: i.case_value.is_finite().then_some(i.case_value),
-                keeps_modes: i.role.keeps_modes(),
+                keeps_modes: engine.shortcut && i.role.keeps_modes(),
+                interpolated: engine.family.is_some() && i.role.uses_family(),
             })
             .collect(),
+        stiffness_family: engine.family.as_ref().map(|f| f.info.clone()),
+        stiffness_family_error: engine.family_error.clone(),
         stages: case.stages.iter().map(|s| s.name.clone()).collect(),
         stage_of: engine.kernels.iter().map(|k| k.stage_index).collect(),
         modes,

@@ -61,7 +61,9 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
             escape(&i.key),
             escape(&i.described),
             i.case_value.map_or_else(|| "default".to_string(), num),
-            if i.keeps_modes {
+            if i.interpolated {
+                "interpolated over the shell stiffness (below)"
+            } else if i.keeps_modes {
                 "reused (scaled)"
             } else {
                 "re-solved per sample"
@@ -69,6 +71,7 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
         );
     }
     s.push_str("</tbody></table>\n");
+    stiffness_family_section(&mut s, h);
     s.push_str("<h2>Rank correlations</h2>\n");
     if h.correlations.is_empty() {
         s.push_str("<p>None: the inputs are sampled independently.</p>\n");
@@ -137,6 +140,46 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
     s.push_str(tornado);
     s.push_str("</body>\n</html>\n");
     s
+}
+
+/// How E and the stiffness factors reach the modes on base springs (the shell's stiffness
+/// scales, the springs' does not): the family's interval, panels, solves and measured
+/// deviation, or why there is none.
+fn stiffness_family_section(s: &mut String, h: &RiskHeader) {
+    if let Some(f) = &h.stiffness_family {
+        s.push_str("<h2>Modes over the shell stiffness</h2>\n");
+        let _ = writeln!(
+            s,
+            "<p>The stack stands on base springs, so E and the stiffness factors scale the \
+             shell's stiffness but not the springs', and the modes do not scale as sqrt(E). \
+             They were solved in full at {} shell stiffness scales s = E / E_case x \
+             (stiffness factor / its case value) in [{}, {}] (the inputs' quantiles at {} and \
+             1 - {}), and each sample's frequencies, shapes, equivalent masses, K, K_W and \
+             unit load curves are interpolated in ln s: {} panel(s) of degree {} Chebyshev \
+             interpolation. The largest relative deviation of a half-degree interpolant from \
+             the full solves at its check points was {} (accepted up to {}); the kept \
+             interpolants are more accurate than that. A sample outside the interval is \
+             solved in full.</p>",
+            f.solves,
+            significant(f.low_scale),
+            significant(f.high_scale),
+            significant(crate::risk::FAMILY_TAIL),
+            significant(crate::risk::FAMILY_TAIL),
+            f.panels,
+            f.degree,
+            significant(f.measured_deviation),
+            significant(f.tolerance)
+        );
+    } else if let Some(e) = &h.stiffness_family_error {
+        s.push_str("<h2>Modes over the shell stiffness</h2>\n");
+        let _ = writeln!(
+            s,
+            "<p>The stack stands on base springs, so E and the stiffness factors do not scale \
+             the modes as sqrt(E). Interpolating the modes over the shell stiffness was not \
+             possible ({}), so every sample was solved in full.</p>",
+            escape(e)
+        );
+    }
 }
 
 #[cfg(test)]

@@ -37,23 +37,28 @@ pub struct ActionCurve {
 impl ActionCurve {
     /// |M_k| at height z (linear between points, 0 outside).
     pub fn moment_at(&self, z: f64) -> f64 {
+        self.signed_moment_at(z).abs()
+    }
+
+    /// The moment at `z` with its sign (the same interpolation as [`Self::moment_at`]).
+    pub fn signed_moment_at(&self, z: f64) -> f64 {
         let p = &self.moment_nm;
         if p.is_empty() || z < p[0].0 - 1e-9 || z > p[p.len() - 1].0 + 1e-9 {
             return 0.0;
         }
         let i = p.partition_point(|q| q.0 < z);
         if i == 0 {
-            return p[0].1.abs();
+            return p[0].1;
         }
         if i >= p.len() {
-            return p[p.len() - 1].1.abs();
+            return p[p.len() - 1].1;
         }
         let (a, b) = (p[i - 1], p[i]);
         if (b.0 - a.0).abs() < 1e-12 {
-            return b.1.abs();
+            return b.1;
         }
         let t = (z - a.0) / (b.0 - a.0);
-        (a.1 + t * (b.1 - a.1)).abs()
+        a.1 + t * (b.1 - a.1)
     }
 }
 

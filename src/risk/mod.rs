@@ -28,6 +28,7 @@
 //! Units: sampled values in the case file's units (the key names them); results SI.
 
 pub mod accumulator;
+pub mod chebyshev;
 pub mod correlation;
 pub mod distribution;
 pub mod kernel;
@@ -35,6 +36,7 @@ pub mod resistance_kernel;
 pub mod rng;
 pub mod run;
 pub mod stats;
+pub mod stiffness_family;
 
 use serde::{Deserialize, Serialize};
 
@@ -49,6 +51,18 @@ use kernel::{ModeKernel, ModeSample, SampleInputs};
 /// `[[uncertain]]`, and its case value is 1.
 pub const C_LAT_FACTOR_KEY: &str = "uncertainty.c_lat_factor";
 
+/// The tail probability outside the [`stiffness_family`]'s interval, per input and side:
+/// a sample beyond it (about 2e-7 of the samples per stiffness input) is re-solved.
+pub const FAMILY_TAIL: f64 = 1e-7;
+
+/// A thread's working copies of the family's kernels ([`Engine::scratch`]).
+#[derive(Debug, Clone, Default)]
+pub struct Scratch {
+    kernels: Vec<ModeKernel>,
+    resistance: Vec<resistance_kernel::ResistanceKernel>,
+    weights: Vec<stiffness_family::Weights>,
+}
+
 /// Largest number of samples of one run.
 pub const MAX_SAMPLES: u64 = 1_000_000_000_000;
 
@@ -59,6 +73,11 @@ pub enum Role {
     ElasticModulus,
     /// `stage[i].stiffness_factor`: omega^2 of stage i scales with it.
     StageStiffness(usize),
+    /// `shell.elastic_modulus_gpa` on base springs: the shell's stiffness scales with E,
+    /// the springs' does not; modes from the [`stiffness_family`].
+    ShellModulus,
+    /// `stage[i].stiffness_factor` on base springs (as [`Role::ShellModulus`], stage i).
+    ShellStageStiffness(usize),
     /// `vortex.strouhal`.
     Strouhal,
     /// `vortex.log_decrement`: every stage that does not give its own `log_decrement` (a
@@ -73,9 +92,39 @@ pub enum Role {
 }
 
 impl Role {
-    /// Whether samples of this key keep the case's modes.
+    /// Whether samples of this key avoid an eigen-solve (the shell roles through the
+    /// [`stiffness_family`], when it can be built).
     pub fn keeps_modes(self) -> bool {
         self != Role::Resolve
+    }
+
+    /// Whether samples of this key take their modes from the [`stiffness_family`].
+    pub fn uses_family(self) -> bool {
+        matches!(self, Role::ShellModulus | Role::ShellStageStiffness(_))
+    }
+}
+
+/// How E and the stiffness factors act on a case's stiffness matrix.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Scaling {
+    /// They multiply the whole matrix (fixed base, one modulus): exact sqrt scaling.
+    Whole,
+    /// They multiply the shell's part but not the base springs (one modulus): the
+    /// [`stiffness_family`].
+    Shell,
+    /// The shell has zones of their own modulus: E reaches only part of it; re-solve.
+    Partial,
+}
+
+impl Scaling {
+    /// The scaling of a case with (`zones`) concrete zones of their own and (`springs`)
+    /// base springs.
+    pub fn of(zones: bool, springs: bool) -> Scaling {
+        match (zones, springs) {
+            (true, _) => Scaling::Partial,
+            (false, true) => Scaling::Shell,
+            (false, false) => Scaling::Whole,
+        }
     }
 }
 
@@ -92,16 +141,18 @@ pub struct UncertainInput {
     pub case_value: f64,
 }
 
-/// The role of `key` given the case. E and the stiffness factor keep the modes only when
-/// they scale the whole stiffness matrix: not when the shell has zones of their own modulus
-/// (`scales_whole_stiffness` false), nor with base springs, which do not scale with E (a
-/// fixed base has none): then f(E) is not sqrt(E) f(E_case), and samples re-solve.
-pub fn role_of(key: &str, scales_whole_stiffness: bool) -> Role {
+/// The role of `key` given how the case's stiffness scales. E and the stiffness factor
+/// scale the frequencies exactly (sqrt) only when they multiply the whole stiffness matrix;
+/// on base springs, which do not scale with E, their samples take their modes from the
+/// [`stiffness_family`]; with zones of their own modulus they re-solve.
+pub fn role_of(key: &str, scaling: Scaling) -> Role {
+    let whole = scaling == Scaling::Whole;
+    let shell = scaling == Scaling::Shell;
     if key == "shell.elastic_modulus_gpa" {
-        return if scales_whole_stiffness {
-            Role::ElasticModulus
-        } else {
-            Role::Resolve
+        return match scaling {
+            Scaling::Whole => Role::ElasticModulus,
+            Scaling::Shell => Role::ShellModulus,
+            Scaling::Partial => Role::Resolve,
         };
     }
     match key {
@@ -113,9 +164,13 @@ pub fn role_of(key: &str, scales_whole_stiffness: bool) -> Role {
     }
     if let Some(rest) = key.strip_prefix("stage[") {
         if let Some((i, tail)) = rest.split_once(']') {
-            if tail == ".stiffness_factor" && scales_whole_stiffness {
+            if tail == ".stiffness_factor" && (whole || shell) {
                 if let Ok(i) = i.parse() {
-                    return Role::StageStiffness(i);
+                    return if whole {
+                        Role::StageStiffness(i)
+                    } else {
+                        Role::ShellStageStiffness(i)
+                    };
                 }
             }
         }
@@ -138,6 +193,11 @@ pub struct Engine<'a> {
     pub copula: correlation::Copula,
     /// The resistance quantities per kernel (`--with-resistance`), else `None`.
     pub resistance: Option<Vec<resistance_kernel::ResistanceKernel>>,
+    /// The modes over the shell stiffness when E or a stiffness factor is uncertain on
+    /// base springs ([`stiffness_family`]), else `None`.
+    pub family: Option<stiffness_family::StiffnessFamily>,
+    /// Why that family could not be built (its samples then re-solve), for the note.
+    pub family_error: Option<String>,
     /// The full analysis of a sample: the sampled values of every input (risk-only keys
     /// included, the function ignores them) -> validated case, or the message why not.
     pub full: &'a (dyn Fn(&[f64]) -> Result<Case, String> + Sync),
@@ -175,7 +235,7 @@ impl<'a> Engine<'a> {
         let kernels = kernel::kernels(case, &stages)?;
         let shortcut = ModeKernel::supported(case.vortex.method)
             && inputs.iter().all(|i| i.role.keeps_modes());
-        Ok(Engine {
+        let mut e = Engine {
             case,
             inputs,
             seed,
@@ -184,8 +244,63 @@ impl<'a> Engine<'a> {
             shortcut,
             copula: correlation::Copula::default(),
             resistance: None,
+            family: None,
+            family_error: None,
             full,
-        })
+        };
+        e.build_family();
+        Ok(e)
+    }
+
+    /// Builds the [`stiffness_family`] when the shortcut needs one (with the resistance
+    /// kernels' unit moments when they are present); without it the samples re-solve.
+    fn build_family(&mut self) {
+        if !self.shortcut || !self.inputs.iter().any(|i| i.role.uses_family()) {
+            return;
+        }
+        let (low, high) = self.shell_scale_range();
+        match stiffness_family::StiffnessFamily::build(
+            self.case,
+            &self.kernels,
+            self.resistance.as_deref(),
+            low,
+            high,
+        ) {
+            Ok(f) => {
+                self.family = Some(f);
+                self.family_error = None;
+            }
+            Err(e) => {
+                self.family = None;
+                self.family_error = Some(e.to_string());
+                self.shortcut = false;
+            }
+        }
+    }
+
+    /// The range of the shell stiffness scale s over the stages: the product of E's and
+    /// each stage's stiffness factor's ranges, each from its distribution's quantiles at
+    /// [`FAMILY_TAIL`] and 1 - [`FAMILY_TAIL`] relative to the case value.
+    fn shell_scale_range(&self) -> (f64, f64) {
+        let range = |inp: &UncertainInput| {
+            let lo = inp.distribution.sample(FAMILY_TAIL) / inp.case_value;
+            let hi = inp.distribution.sample(1.0 - FAMILY_TAIL) / inp.case_value;
+            (lo.min(hi), lo.max(hi))
+        };
+        let mut e = (1.0, 1.0);
+        let mut stage = vec![(1.0f64, 1.0f64); self.stages];
+        for inp in self.inputs {
+            match inp.role {
+                Role::ShellModulus => e = range(inp),
+                Role::ShellStageStiffness(i) if i < self.stages => stage[i] = range(inp),
+                _ => {}
+            }
+        }
+        stage
+            .iter()
+            .fold((f64::INFINITY, 0.0f64), |(lo, hi), &(a, b)| {
+                (lo.min(e.0 * a), hi.max(e.1 * b))
+            })
     }
 
     /// The same engine with the inputs' rank correlations (a correlation changes no mode,
@@ -209,6 +324,10 @@ impl<'a> Engine<'a> {
             )));
         }
         self.resistance = Some(rk);
+        if self.family.is_some() {
+            // The family again, now with the unit moment curves.
+            self.build_family();
+        }
         Ok(self)
     }
 
@@ -229,13 +348,37 @@ impl<'a> Engine<'a> {
         }
     }
 
-    /// Evaluates sample `index` into `out` (one entry per kernel). Returns false when the
-    /// sample is invalid (a case-file rule or the solver refused it).
+    /// A thread's working copies for [`Self::evaluate_with`].
+    pub fn scratch(&self) -> Scratch {
+        match &self.family {
+            Some(f) => Scratch {
+                kernels: f.templates(),
+                resistance: self.resistance.clone().unwrap_or_default(),
+                weights: vec![stiffness_family::Weights::default(); self.stages],
+            },
+            None => Scratch::default(),
+        }
+    }
+
+    /// Evaluates a sample into `out` (one entry per kernel); see [`Self::evaluate_with`].
     pub fn evaluate(
         &self,
         values: &[f64],
         out: &mut [ModeSample],
         message: &mut Option<String>,
+    ) -> bool {
+        self.evaluate_with(values, out, message, &mut self.scratch())
+    }
+
+    /// Evaluates the sample with the sampled `values` into `out` (one entry per kernel),
+    /// using `scratch` (from [`Self::scratch`]) for the family's kernels. Returns false
+    /// when the sample is invalid (a case-file rule or the solver refused it).
+    pub fn evaluate_with(
+        &self,
+        values: &[f64],
+        out: &mut [ModeSample],
+        message: &mut Option<String>,
+        scratch: &mut Scratch,
     ) -> bool {
         if self.shortcut {
             let mut per_stage = [1.0f64; 64];
@@ -243,8 +386,8 @@ impl<'a> Engine<'a> {
             let mut s = SampleInputs::identity();
             for (inp, &x) in self.inputs.iter().zip(values) {
                 match inp.role {
-                    Role::ElasticModulus => e_scale = x / inp.case_value,
-                    Role::StageStiffness(i) if i < 64 => {
+                    Role::ElasticModulus | Role::ShellModulus => e_scale = x / inp.case_value,
+                    Role::StageStiffness(i) | Role::ShellStageStiffness(i) if i < 64 => {
                         per_stage[i] = x / inp.case_value;
                     }
                     Role::Strouhal => s.strouhal = Some(x),
@@ -254,9 +397,39 @@ impl<'a> Engine<'a> {
                     _ => {}
                 }
             }
+            let stage_scale = |i: usize| e_scale * per_stage.get(i).copied().unwrap_or(1.0);
+            if let Some(f) = &self.family {
+                // On base springs: each stage's kernels at its shell stiffness scale; the
+                // frequencies come from the family, not from sqrt scaling.
+                for (w, i) in scratch.weights.iter_mut().zip(0..) {
+                    if !f.weights(stage_scale(i), w) {
+                        // Outside the family's interval (a far tail): the full analysis.
+                        return self.finish_full(values, out, message);
+                    }
+                }
+                for (k, o) in out.iter_mut().enumerate() {
+                    let w = &scratch.weights[self.kernels[k].stage_index];
+                    f.kernel_into(k, w, &s, &mut scratch.kernels[k]);
+                    *o = scratch.kernels[k].evaluate(&s);
+                }
+                if self.resistance.is_some() {
+                    for (k, r) in scratch.resistance.iter_mut().enumerate() {
+                        // A mode without amplitude reads no moment.
+                        if out[k].load_scale > 0.0 {
+                            f.moments_into(k, &scratch.weights[r.stage_index], r);
+                        }
+                    }
+                    let rk = &scratch.resistance;
+                    if let Err(m) = add_resistance(rk, out, s.reference_speed_m_s, e_scale) {
+                        *message = Some(m);
+                        return false;
+                    }
+                }
+                return true;
+            }
             for (k, o) in self.kernels.iter().zip(out.iter_mut()) {
                 let mut sk = s;
-                sk.stiffness_scale = e_scale * per_stage.get(k.stage_index).copied().unwrap_or(1.0);
+                sk.stiffness_scale = stage_scale(k.stage_index);
                 *o = k.evaluate(&sk);
             }
             if let Some(rk) = &self.resistance {
@@ -267,6 +440,15 @@ impl<'a> Engine<'a> {
             }
             return true;
         }
+        self.finish_full(values, out, message)
+    }
+
+    fn finish_full(
+        &self,
+        values: &[f64],
+        out: &mut [ModeSample],
+        message: &mut Option<String>,
+    ) -> bool {
         match self.evaluate_full(values, out) {
             Ok(()) => true,
             Err(m) => {
@@ -408,8 +590,12 @@ pub struct InputInfo {
     pub described: String,
     /// The case's own value (`None` when the case leaves the key to its default).
     pub case_value: Option<f64>,
-    /// Whether samples of this key reuse the case's modes.
+    /// Whether samples of this key avoid an eigen-solve.
     pub keeps_modes: bool,
+    /// Whether their modes come from the [`stiffness_family`] (E or a stiffness factor on
+    /// base springs).
+    #[serde(default)]
+    pub interpolated: bool,
 }
 
 /// One checked (stage, mode) and the case's own result.
@@ -448,6 +634,12 @@ pub struct RiskHeader {
     /// Whether the resistance quantities are sampled (`--with-resistance`).
     #[serde(default)]
     pub resistance: bool,
+    /// The modes over the shell stiffness, when built ([`stiffness_family`]).
+    #[serde(default)]
+    pub stiffness_family: Option<stiffness_family::FamilyInfo>,
+    /// Why it could not be built (the samples then re-solve).
+    #[serde(default)]
+    pub stiffness_family_error: Option<String>,
 }
 
 /// A shard's result.

@@ -44,8 +44,12 @@ pub struct ResistanceKernel {
     /// max over the nodes of gamma_Q |M_unit(z)| / M_Rd(z), M_unit the inertia moment per
     /// metre of antinode amplitude at the case's frequency.
     unit_utilisation: f64,
-    /// |M_unit(z)| at each node (same interpolation as `check`'s action curve).
+    /// M_unit(z) at each node with its sign (same interpolation as `check`'s action curve,
+    /// whose magnitude it is).
     unit_moment_nm: Vec<f64>,
+    /// M_Rd(z) at each node (shared by the modes of a stage).
+    resistance_moment_nm: std::sync::Arc<Vec<f64>>,
+    gamma_q: f64,
     /// Shared by the modes of a stage.
     nodes: std::sync::Arc<Vec<FatigueNode>>,
     eps0: f64,
@@ -107,6 +111,7 @@ pub fn resistance_kernels(
         let climate = StageClimate::of(case, &sm.stage, site);
         let (mrd, nodes) = stage_nodes(spec, sm, case.shell.elastic_modulus_pa)?;
         let nodes = std::sync::Arc::new(nodes);
+        let mrd = std::sync::Arc::new(mrd);
         for mode in sm.modes.iter().take(case.vortex.modes) {
             out.push(ResistanceKernel::new(
                 stage_index,
@@ -151,6 +156,31 @@ fn stage_nodes(
     Ok((nr.iter().map(|n| n.resistance_moment_nm).collect(), nodes))
 }
 
+/// The inertia moment per metre of antinode amplitude of `mode` at each height of
+/// `node_z_m`, with its sign: the unit curve of `wind::check_mode` at the mode's own
+/// frequency, interpolated to the nodes as `check`'s action curve.
+pub fn unit_moments(sm: &StageModes, mode: &Mode, node_z_m: &[f64]) -> Vec<f64> {
+    let model = &sm.model;
+    let shape = ModeShape::from_mode(model, mode);
+    let ia = shape.largest_antinode();
+    let unit = loads::inertia_loads(
+        model,
+        &shape,
+        mode.frequency_hz,
+        1.0 / mode.displacement[ia],
+    );
+    let curve = ActionCurve {
+        name: String::new(),
+        load_factor: 1.0,
+        factor_source: String::new(),
+        moment_nm: unit.iter().map(|l| (l.z_m, l.moment_nm)).collect(),
+    };
+    node_z_m
+        .iter()
+        .map(|&z| curve.signed_moment_at(z))
+        .collect()
+}
+
 impl ResistanceKernel {
     #[allow(clippy::too_many_arguments)]
     fn new(
@@ -159,32 +189,19 @@ impl ResistanceKernel {
         climate: &StageClimate,
         sm: &StageModes,
         mode: &Mode,
-        mrd: &[f64],
+        mrd: &std::sync::Arc<Vec<f64>>,
         nodes: &std::sync::Arc<Vec<FatigueNode>>,
         eps0: f64,
     ) -> Self {
         let model = &sm.model;
-        let shape = ModeShape::from_mode(model, mode);
-        let ia = shape.largest_antinode();
-        let phi_a = mode.displacement[ia];
-        // The same unit curve as `wind::check_mode` (per metre of antinode amplitude).
-        let unit = loads::inertia_loads(model, &shape, mode.frequency_hz, 1.0 / phi_a);
-        let curve = ActionCurve {
-            name: String::new(),
-            load_factor: spec.factors.gamma_q,
-            factor_source: String::new(),
-            moment_nm: unit.iter().map(|l| (l.z_m, l.moment_nm)).collect(),
-        };
-        let unit_moment_nm: Vec<f64> = nodes.iter().map(|n| curve.moment_at(n.z_m)).collect();
-        let unit_utilisation = unit_moment_nm
-            .iter()
-            .zip(mrd)
-            .map(|(m, r)| spec.factors.gamma_q * m / r)
-            .fold(0.0, f64::max);
-        ResistanceKernel {
+        let ia = ModeShape::from_mode(model, mode).largest_antinode();
+        let z: Vec<f64> = nodes.iter().map(|n| n.z_m).collect();
+        let mut k = ResistanceKernel {
             stage_index,
-            unit_utilisation,
-            unit_moment_nm,
+            unit_utilisation: 0.0,
+            unit_moment_nm: unit_moments(sm, mode, &z),
+            resistance_moment_nm: mrd.clone(),
+            gamma_q: spec.factors.gamma_q,
             nodes: nodes.clone(),
             eps0,
             judged_years: climate.judged_years,
@@ -192,7 +209,43 @@ impl ResistanceKernel {
             site_reference_speed_m_s: climate.site_wind.reference_speed_m_s,
             gamma_f_fat: spec.factors.gamma_f_fat,
             gamma_s_fat: spec.factors.gamma_s_fat,
+        };
+        k.unit_utilisation = k.utilisation_of_unit_moments();
+        k
+    }
+
+    /// max over the nodes of gamma_Q |M_unit(z)| / M_Rd(z).
+    fn utilisation_of_unit_moments(&self) -> f64 {
+        self.unit_moment_nm
+            .iter()
+            .zip(self.resistance_moment_nm.iter())
+            .map(|(m, r)| self.gamma_q * m.abs() / r)
+            .fold(0.0, f64::max)
+    }
+
+    /// The heights of the stage's nodes, m.
+    pub fn node_z_m(&self) -> Vec<f64> {
+        self.nodes.iter().map(|n| n.z_m).collect()
+    }
+
+    /// Sets the unit moments to sum_j lambda_j curve(j) (unit moment curves of the same
+    /// nodes at other shell stiffnesses, [`unit_moments`]) and the unit utilisation from
+    /// them: for a family of modes over the shell stiffness.
+    pub fn interpolate_from<'a>(&mut self, lambda: &[f64], curve: impl Fn(usize) -> &'a [f64]) {
+        self.unit_moment_nm.iter_mut().for_each(|m| *m = 0.0);
+        for (j, &l) in lambda.iter().enumerate() {
+            if l != 0.0 {
+                for (m, &v) in self.unit_moment_nm.iter_mut().zip(curve(j)) {
+                    *m += l * v;
+                }
+            }
         }
+        self.unit_utilisation = self.utilisation_of_unit_moments();
+    }
+
+    /// The unit moments at the nodes, N m per m of antinode amplitude, with their sign.
+    pub fn unit_moments_nm(&self) -> &[f64] {
+        &self.unit_moment_nm
     }
 
     /// Number of nodes of the stage (the length of `node_damage` in [`Self::evaluate`]).
@@ -234,7 +287,7 @@ impl ResistanceKernel {
             .zip(&self.unit_moment_nm)
             .zip(node_damage.iter_mut())
         {
-            let m = u * load_scale;
+            let m = u.abs() * load_scale;
             if m <= 0.0 {
                 continue;
             }

@@ -38,10 +38,12 @@ pub fn run_range(
         let mut bits = vec![0u64; n_in];
         let mut values = vec![0f64; n_in];
         let mut out = vec![ModeSample::default(); engine.modes()];
+        let mut scratch = engine.scratch();
         for i in a..b {
             engine.draw(i, &mut bits, &mut values);
             let mut message = None;
-            let ok = engine.evaluate(&values, &mut out, &mut message) && out.iter().all(finite);
+            let ok = engine.evaluate_with(&values, &mut out, &mut message, &mut scratch)
+                && out.iter().all(finite);
             if ok {
                 acc.add(&out, &stage_of, &bits, inv);
             } else {

@@ -5,8 +5,8 @@
 //! displacements and rotations, i.e. exactly the shape the beam elements carry (any FE text on
 //! Hermite beam elements). Without rotations it falls back to linear interpolation.
 //! Integrals use 4-point Gauss-Legendre per element (exact for polynomials up to degree 7, so
-//! exact for Phi, Phi^2 and m Phi^2 with linear m on a Hermite element; |Phi| is exact except
-//! in the element where Phi changes sign).
+//! exact for Phi, Phi^2 and m Phi^2 with linear m on a Hermite element; |Phi| is made exact
+//! by splitting an element where Phi changes sign).
 
 use crate::modal::{Mode, StageModel};
 
@@ -146,9 +146,102 @@ impl<'a> ModeShape<'a> {
         sum
     }
 
-    /// int_a^b |Phi| dz, m.
+    /// int_a^b |Phi| dz, m, exact for the element shapes: each element is split where Phi
+    /// changes sign, so the Gauss rule integrates a polynomial on every piece. (Gauss points
+    /// across a sign change would leave an error of up to ~1e-6 that jumps as the root moves
+    /// past a point: K and K_W would then not be smooth functions of the structure, which
+    /// the risk family over the shell stiffness needs.)
     pub fn integral_abs(&self, a_m: f64, b_m: f64) -> f64 {
-        self.integrate(a_m, b_m, |_, _, _, p| p.abs())
+        let a = a_m.max(self.z_m[0]);
+        let b = b_m.min(self.height_m());
+        if b <= a {
+            return 0.0;
+        }
+        let mut sum = 0.0;
+        for e in self.element_at(a)..self.elements() {
+            let (za, zb) = (self.z_m[e], self.z_m[e + 1]);
+            if za >= b {
+                break;
+            }
+            let (lo, hi) = (a.max(za), b.min(zb));
+            if hi <= lo {
+                continue;
+            }
+            let len = zb - za;
+            let (t_lo, t_hi) = ((lo - za) / len, (hi - za) / len);
+            let mut cuts = [0.0; 8];
+            let n = self.sign_changes(e, t_lo, t_hi, &mut cuts);
+            for w in cuts[..n].windows(2) {
+                for &(x, g) in &GAUSS4 {
+                    let t = w[0] + (w[1] - w[0]) * x;
+                    sum += g * (w[1] - w[0]) * len * self.eval(e, t).abs();
+                }
+            }
+        }
+        sum
+    }
+
+    /// The pieces of [t_lo, t_hi] in element `e` between which Phi keeps its sign: their
+    /// ends into `cuts` (t_lo, the roots inside, t_hi), returns how many.
+    fn sign_changes(&self, e: usize, t_lo: f64, t_hi: f64, cuts: &mut [f64; 8]) -> usize {
+        // Monotone pieces first: between the ends and the stationary points of the cubic
+        // (roots of its derivative, a quadratic), each piece has at most one root.
+        let mut ends = [t_lo, t_hi, t_hi, t_hi];
+        let mut m = 1;
+        if let Some(s) = self.slope_per_m {
+            let l = self.z_m[e + 1] - self.z_m[e];
+            let (p0, p1, s0, s1) = (self.phi[e], self.phi[e + 1], s[e] * l, s[e + 1] * l);
+            // d/dt of the Hermite form in `eval`: qa t^2 + qb t + qc.
+            let qa = 6.0 * p0 + 3.0 * s0 - 6.0 * p1 + 3.0 * s1;
+            let qb = -6.0 * p0 - 4.0 * s0 + 6.0 * p1 - 2.0 * s1;
+            let qc = s0;
+            let mut stationary = [f64::NAN; 2];
+            if qa.abs() > 1e-300 {
+                let disc = qb * qb - 4.0 * qa * qc;
+                if disc >= 0.0 {
+                    // The stable form of the two roots (no cancellation).
+                    let q = -0.5 * (qb + qb.signum() * disc.sqrt());
+                    stationary = [q / qa, if q != 0.0 { qc / q } else { f64::NAN }];
+                }
+            } else if qb != 0.0 {
+                stationary[0] = -qc / qb;
+            }
+            stationary.sort_by(|x, y| x.total_cmp(y));
+            for t in stationary {
+                if t > t_lo && t < t_hi {
+                    ends[m] = t;
+                    m += 1;
+                }
+            }
+        }
+        ends[m] = t_hi;
+        let ends = &ends[..=m];
+        let mut n = 0;
+        cuts[n] = t_lo;
+        n += 1;
+        for w in ends.windows(2) {
+            let (mut u, mut v) = (w[0], w[1]);
+            let (fu, fv) = (self.eval(e, u), self.eval(e, v));
+            if fu * fv < 0.0 {
+                // Bisection to rounding on the monotone piece: the root is unique there.
+                let up = fu < 0.0;
+                for _ in 0..200 {
+                    let mid = 0.5 * (u + v);
+                    if mid <= u || mid >= v {
+                        break;
+                    }
+                    if (self.eval(e, mid) < 0.0) == up {
+                        u = mid;
+                    } else {
+                        v = mid;
+                    }
+                }
+                cuts[n] = 0.5 * (u + v);
+                n += 1;
+            }
+        }
+        cuts[n] = t_hi;
+        n + 1
     }
 
     /// int_a^b Phi dz, m.
@@ -240,6 +333,48 @@ pub fn generalised_mass_kg(model: &StageModel, shape: &ModeShape) -> f64 {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn abs_integral_is_exact_across_a_root_of_the_cubic() {
+        // Phi = t^3 - 1/2 on one element of length 1 (nodal -1/2, 1/2, slopes 0 and 3):
+        // int_0^1 |t^3 - 1/2| dt = 3 r / 4 - 1/4 with r = 2^(-1/3) (calculus).
+        let z = [0.0, 1.0];
+        let p = [-0.5, 0.5];
+        let s = [0.0, 3.0];
+        let shape = ModeShape::new(&z, &p, Some(&s));
+        let r = 0.5f64.cbrt();
+        assert!((shape.integral_abs(0.0, 1.0) - (0.75 * r - 0.25)).abs() < 1e-15);
+        // Part of the element, the root inside: int_0.5^1 = (r - r^4 / 2 - 0.25) minus
+        // int_0^0.5 (1/2 - t^3) = 0.25 - 0.015625.
+        let part = (0.75 * r - 0.25) - (0.25 - 0.015_625);
+        assert!((shape.integral_abs(0.5, 1.0) - part).abs() < 1e-15);
+        // Linear shape (no slopes): int_0^1 |t - 0.3| = 0.09 / 2 + 0.49 / 2.
+        let lin = [-0.3, 0.7];
+        let shape = ModeShape::new(&z, &lin, None);
+        assert!((shape.integral_abs(0.0, 1.0) - 0.29).abs() < 1e-15);
+    }
+
+    #[test]
+    fn abs_integral_with_three_roots_in_one_element() {
+        // Phi = (t - 0.2)(t - 0.5)(t - 0.9), nodal values and slopes from the polynomial;
+        // int_0^1 |Phi| against the antiderivative split at the roots (calculus).
+        let f = |t: f64| (t - 0.2) * (t - 0.5) * (t - 0.9);
+        let df = |t: f64| (t - 0.5) * (t - 0.9) + (t - 0.2) * (t - 0.9) + (t - 0.2) * (t - 0.5);
+        let z = [0.0, 1.0];
+        let p = [f(0.0), f(1.0)];
+        let s = [df(0.0), df(1.0)];
+        let shape = ModeShape::new(&z, &p, Some(&s));
+        // F(t) = t^4/4 - 1.6 t^3/3 + 0.73 t^2/2 - 0.09 t (expanded polynomial t^3 - 1.6 t^2
+        // + 0.73 t - 0.09).
+        let big = |t: f64| t.powi(4) / 4.0 - 1.6 * t.powi(3) / 3.0 + 0.73 * t * t / 2.0 - 0.09 * t;
+        let cuts = [0.0, 0.2, 0.5, 0.9, 1.0];
+        let exact: f64 = cuts.windows(2).map(|w| (big(w[1]) - big(w[0])).abs()).sum();
+        assert!(
+            (shape.integral_abs(0.0, 1.0) - exact).abs() < 1e-15,
+            "{}",
+            exact
+        );
+    }
 
     fn parabola(n: usize, h: f64) -> (Vec<f64>, Vec<f64>, Vec<f64>) {
         let z: Vec<f64> = (0..=n).map(|i| h * i as f64 / n as f64).collect();
