@@ -164,6 +164,51 @@ fn resistance_quantities_are_in_the_outputs_and_need_reinforcement() {
     assert!(!none.exists());
 }
 
+/// E and a stage's stiffness factor on the demo's base springs: the stiffness family.
+const ON_SPRINGS: &str = r#"
+[[uncertain]]
+key = "shell.elastic_modulus_gpa"
+distribution = "lognormal"
+mean = 32.0
+cov = 0.15
+
+[[uncertain]]
+key = "stage[1].stiffness_factor"
+distribution = "uniform"
+low = 0.8
+high = 1.1
+
+[[uncertain]]
+key = "vortex.log_decrement"
+distribution = "lognormal"
+mean = 0.03
+cov = 0.4
+"#;
+
+#[test]
+fn shards_of_stiffness_family_samples_merge_to_the_single_run() {
+    shards_merge_with(ON_SPRINGS, "3000", true, &["--with-resistance"]);
+}
+
+#[test]
+fn the_stiffness_family_is_described_in_the_outputs() {
+    let dir = tempfile::tempdir().unwrap();
+    let case = case_with(dir.path(), "case.toml", ON_SPRINGS);
+    let out = dir.path().join("out");
+    risk(&case, &["--samples", "500"], &out).success();
+    let note = std::fs::read_to_string(out.join("risk.html")).unwrap();
+    assert!(
+        note.contains("<h2>Modes over the shell stiffness</h2>"),
+        "{note}"
+    );
+    assert!(note.contains("interpolated over the shell stiffness (below)"));
+    let json = std::fs::read_to_string(out.join("summary.json")).unwrap();
+    let v: serde_json::Value = serde_json::from_str(&json).unwrap();
+    let text = v.to_string();
+    assert!(text.contains("\"stiffness_family\":{"), "{text}");
+    assert!(text.contains("\"interpolated\":true"), "{text}");
+}
+
 #[test]
 fn shards_of_re_solved_samples_merge_to_the_single_run_with_samples() {
     shards_merge_to_the_single_run(RESOLVE, "48", true);

@@ -287,6 +287,11 @@ struct RiskJson<'a> {
     seed: u64,
     method: &'a str,
     inputs: &'a [crate::risk::InputInfo],
+    /// The modes over the shell stiffness (E or a stiffness factor on base springs).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    stiffness_family: Option<&'a crate::risk::stiffness_family::FamilyInfo>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    stiffness_family_error: Option<&'a str>,
     rank_correlations: &'a [crate::risk::correlation::CorrelationInfo],
     correlation_method: &'static str,
     percentile_relative_accuracy: f64,
@@ -316,7 +321,9 @@ pub const RESISTANCE_METHOD: &str = "Resistance (--with-resistance): per stage a
      vertical bars at its worst height (EN 1992-1-1 6.8.4, Table 6.3N, cracked-section bar \
      stress range with the sample's concrete E); probability_exceeding of each is P(> 1), \
      and either counts in the mode's exceeds. Samples that keep the modes scale the case's \
-     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged). As check \
+     moment curves by (n / n_case)^2 y (exact: shapes, N_Ed and M_Rd unchanged); on base \
+     springs, E and stiffness-factor samples take the moment curves of the stiffness family \
+     (interpolated over full solves, see its section). As check \
      judges it, stage_fatigue_damage is the largest sum over the stage's modes at one height \
      and total_fatigue_damage the sum over the stages; either above 1 also counts in the \
      stage's exceeds_any_mode and the case's exceeds_any";
@@ -375,6 +382,8 @@ pub fn summary_json(h: &RiskHeader, a: &Accumulator) -> Result<Vec<u8>, ReportEr
             seed: h.seed,
             method: &h.method,
             inputs: &h.inputs,
+            stiffness_family: h.stiffness_family.as_ref(),
+            stiffness_family_error: h.stiffness_family_error.as_deref(),
             rank_correlations: &h.correlations,
             correlation_method: if h.correlations.is_empty() {
                 "none: the inputs are sampled independently"

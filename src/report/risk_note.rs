@@ -101,7 +101,8 @@ pub fn risk_html(h: &RiskHeader, a: &Accumulator, hist: &str, tornado: &str) -> 
     for line in [
         "Each sample is checked like <code>check</code>: the same modes (re-solved only when a \
          sample changes mass, geometry or springs; otherwise the case's modes with frequencies \
-         scaled by the square root of the stiffness factor), the EN 1991-1-4 Annex E chain of \
+         scaled by the square root of the stiffness factor, or on base springs the modes \
+         interpolated over the shell stiffness, see above), the EN 1991-1-4 Annex E chain of \
          the governing method and the case's criteria.",
         "Sample i draws from a counter-based stream of (seed, i), so any shard or thread count \
          gives the same samples; statistics are exact integer counts and sums, merged exactly.",
@@ -157,9 +158,10 @@ fn stiffness_family_section(s: &mut String, h: &RiskHeader) {
              1 - {}), and each sample's frequencies, shapes, equivalent masses, K, K_W and \
              unit load curves are interpolated in ln s: {} panel(s) of degree {} Chebyshev \
              interpolation. The largest relative deviation of a half-degree interpolant from \
-             the full solves at its check points was {} (accepted up to {}); the kept \
-             interpolants are more accurate than that. A sample outside the interval is \
-             solved in full.</p>",
+             the full solves at its check points was {} (accepted up to {}, the eigen-solver's \
+             own convergence level). Away from the solver's own small jumps (where its \
+             iteration count changes) the kept interpolants are more accurate than that. A \
+             sample outside the interval is solved in full.</p>",
             f.solves,
             significant(f.low_scale),
             significant(f.high_scale),
