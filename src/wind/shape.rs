@@ -169,6 +169,14 @@ impl<'a> ModeShape<'a> {
             }
             let len = zb - za;
             let (t_lo, t_hi) = ((lo - za) / len, (hi - za) / len);
+            if let Some(sign) = self.one_sign(e) {
+                // No root in the element: |Phi| = sign Phi, a polynomial (the usual case).
+                for &(x, g) in &GAUSS4 {
+                    let t = t_lo + (t_hi - t_lo) * x;
+                    sum += g * (t_hi - t_lo) * len * sign * self.eval(e, t);
+                }
+                continue;
+            }
             let mut cuts = [0.0; 8];
             let n = self.sign_changes(e, t_lo, t_hi, &mut cuts);
             for w in cuts[..n].windows(2) {
@@ -179,6 +187,29 @@ impl<'a> ModeShape<'a> {
             }
         }
         sum
+    }
+
+    /// The sign of Phi on element `e` when it certainly keeps one: the cubic's Bernstein
+    /// coefficients (p0, p0 + s0 l / 3, p1 - s1 l / 3, p1) all of that sign (a polynomial
+    /// lies in the convex hull of its Bernstein coefficients; any text on Bezier curves).
+    /// `None` when a root is possible.
+    #[inline]
+    fn one_sign(&self, e: usize) -> Option<f64> {
+        let (p0, p1) = (self.phi[e], self.phi[e + 1]);
+        let (b1, b2) = match self.slope_per_m {
+            Some(s) => {
+                let l = self.z_m[e + 1] - self.z_m[e];
+                (p0 + s[e] * l / 3.0, p1 - s[e + 1] * l / 3.0)
+            }
+            None => (p0, p1),
+        };
+        if p0 > 0.0 && b1 > 0.0 && b2 > 0.0 && p1 > 0.0 {
+            Some(1.0)
+        } else if p0 < 0.0 && b1 < 0.0 && b2 < 0.0 && p1 < 0.0 {
+            Some(-1.0)
+        } else {
+            None
+        }
     }
 
     /// The pieces of [t_lo, t_hi] in element `e` between which Phi keeps its sign: their
@@ -221,22 +252,41 @@ impl<'a> ModeShape<'a> {
         n += 1;
         for w in ends.windows(2) {
             let (mut u, mut v) = (w[0], w[1]);
-            let (fu, fv) = (self.eval(e, u), self.eval(e, v));
+            let (mut fu, mut fv) = (self.eval(e, u), self.eval(e, v));
             if fu * fv < 0.0 {
-                // Bisection to rounding on the monotone piece: the root is unique there.
-                let up = fu < 0.0;
-                for _ in 0..200 {
-                    let mid = 0.5 * (u + v);
-                    if mid <= u || mid >= v {
+                // The Illinois variant of false position on the monotone piece (the root
+                // is unique there and stays bracketed; superlinear, any numerical analysis
+                // text): a handful of evaluations to rounding, where bisection takes 52.
+                let mut x = f64::NAN;
+                let mut kept = 0i8;
+                for _ in 0..100 {
+                    let mut next = (u * fv - v * fu) / (fv - fu);
+                    if !(next > u && next < v) {
+                        next = 0.5 * (u + v);
+                    }
+                    if next == x {
                         break;
                     }
-                    if (self.eval(e, mid) < 0.0) == up {
-                        u = mid;
+                    x = next;
+                    let fx = self.eval(e, x);
+                    if fx == 0.0 || v - u <= 1e-15 {
+                        break;
+                    }
+                    if (fx < 0.0) == (fu < 0.0) {
+                        (u, fu) = (x, fx);
+                        if kept == -1 {
+                            fv *= 0.5;
+                        }
+                        kept = -1;
                     } else {
-                        v = mid;
+                        (v, fv) = (x, fx);
+                        if kept == 1 {
+                            fu *= 0.5;
+                        }
+                        kept = 1;
                     }
                 }
-                cuts[n] = 0.5 * (u + v);
+                cuts[n] = x;
                 n += 1;
             }
         }
