@@ -216,8 +216,53 @@ pub fn kernels_direct(case: &Case, stages: &[StageModes]) -> Result<Vec<ModeKern
     Ok(out)
 }
 
+/// The samples of every stage and checked mode of a re-solved case at `s`, by the rules of
+/// [`kernels_direct`] and [`ModeKernel::evaluate`], into `out`; a mode screened out by
+/// E.1.2 skips the shape integrals and unit loads it would not read (the same
+/// `evaluate`, so the same numbers). Returns the number of entries written.
+pub fn samples_direct(
+    case: &Case,
+    stages: &[StageModes],
+    s: &SampleInputs,
+    out: &mut [ModeSample],
+) -> Result<usize, WindError> {
+    let site = wind::site_wind(case, "risk")?;
+    let mut j = 0;
+    for (si, sm) in stages.iter().enumerate() {
+        let climate = StageClimate::of(case, &sm.stage, site);
+        for mode in sm.modes.iter().take(case.vortex.modes) {
+            let basics = Basics::direct(case, &climate, &sm.model, mode);
+            let mut k = ModeKernel::light(case, &climate, si, sm, mode, basics);
+            if !k.screened(s) {
+                k.complete(sm, mode);
+            }
+            if let Some(o) = out.get_mut(j) {
+                *o = k.evaluate(s);
+            }
+            j += 1;
+        }
+    }
+    Ok(j)
+}
+
 impl ModeKernel {
     fn new(
+        case: &Case,
+        climate: &StageClimate,
+        stage_index: usize,
+        stage_modes: &StageModes,
+        mode: &crate::modal::Mode,
+        mv: Basics,
+    ) -> Self {
+        let mut k = Self::light(case, climate, stage_index, stage_modes, mode, mv);
+        k.complete(stage_modes, mode);
+        k
+    }
+
+    /// The kernel without its curves and shape integrals (K, K_W, unit loads): all that
+    /// [`Self::screened`] and a screened-out [`Self::evaluate`] read. [`Self::complete`]
+    /// adds the rest.
+    fn light(
         case: &Case,
         climate: &StageClimate,
         stage_index: usize,
@@ -228,22 +273,8 @@ impl ModeKernel {
         let model = &stage_modes.model;
         // Every speed of the stage comes from its own design wind (EN 1991-1-4 (4.2)).
         let wind = climate.wind;
-        let shape = ModeShape::from_mode(model, mode);
-        let ia = shape.largest_antinode();
         let top = model.z_m.len() - 1;
-        let phi_a = mode.displacement[ia];
-        let unit = wind::loads::inertia_loads(model, &shape, mode.frequency_hz, 1.0 / phi_a);
         let b = mv.diameter_m;
-        let k = approach1::k_mode_shape(&shape);
-        let plateau = |per_b: f64| {
-            let l = b * per_b;
-            let (lo, hi) = approach1::correlation_interval(&shape, mv.reference_height_m, l);
-            (
-                l,
-                approach1::kw_mode_shape(&shape, mv.reference_height_m, l),
-                profile::speed_factor(&wind, 0.5 * (lo + hi)),
-            )
-        };
         ModeKernel {
             stage_index,
             mode: mode.number,
@@ -260,19 +291,47 @@ impl ModeKernel {
             kinematic_viscosity_m2_s: wind.kinematic_viscosity_m2_s,
             height_m: model.height_m(),
             speed_factor: profile::speed_factor(&wind, mv.reference_height_m),
-            tip_per_antinode: (mode.displacement[top] / phi_a).abs(),
-            stress_per_m: wind::loads::max_abs_stress_pa(&unit),
-            unit_stress_pa: unit.iter().map(|l| l.stress_pa).collect(),
+            tip_per_antinode: 0.0,
+            stress_per_m: 0.0,
+            unit_stress_pa: Vec::new(),
             c_lat_group_factor: mv.c_lat_group_factor,
-            k,
-            plateaus: [plateau(6.0), plateau(12.0)],
+            k: 0.0,
+            plateaus: [(b * 6.0, 0.0, 0.0), (b * 12.0, 0.0, 0.0)],
             wind,
             c_prob: climate.c_prob,
             own_log_decrement: stage_modes.stage.log_decrement.is_some(),
-            z_m: model.z_m.clone(),
-            phi: mode.displacement.clone(),
-            slope: mode.rotation_per_m.clone(),
+            z_m: Vec::new(),
+            phi: Vec::new(),
+            slope: Vec::new(),
         }
+    }
+
+    /// Adds to a [`Self::light`] kernel its shape, unit loads, K and the plateaus' K_W.
+    fn complete(&mut self, stage_modes: &StageModes, mode: &crate::modal::Mode) {
+        let model = &stage_modes.model;
+        let shape = ModeShape::from_mode(model, mode);
+        let ia = shape.largest_antinode();
+        let top = model.z_m.len() - 1;
+        let phi_a = mode.displacement[ia];
+        let unit = wind::loads::inertia_loads(model, &shape, mode.frequency_hz, 1.0 / phi_a);
+        let z_a = self.antinode_z_m;
+        let plateau = |l: f64| {
+            let (lo, hi) = approach1::correlation_interval(&shape, z_a, l);
+            (
+                l,
+                approach1::kw_mode_shape(&shape, z_a, l),
+                profile::speed_factor(&self.wind, 0.5 * (lo + hi)),
+            )
+        };
+        let plateaus = [plateau(self.plateaus[0].0), plateau(self.plateaus[1].0)];
+        self.plateaus = plateaus;
+        self.k = approach1::k_mode_shape(&shape);
+        self.tip_per_antinode = (mode.displacement[top] / phi_a).abs();
+        self.stress_per_m = wind::loads::max_abs_stress_pa(&unit);
+        self.unit_stress_pa = unit.iter().map(|l| l.stress_pa).collect();
+        self.z_m = model.z_m.clone();
+        self.phi = mode.displacement.clone();
+        self.slope = mode.rotation_per_m.clone();
     }
 
     /// Whether this kernel can evaluate the case's governing method (GB 50009 cannot: its

@@ -468,18 +468,15 @@ impl<'a> Engine<'a> {
             .find(|(i, _)| i.role == Role::CLatFactor)
             .map_or(1.0, |(_, &x)| x);
         if ModeKernel::supported(case.vortex.method) {
-            let ks = kernel::kernels_direct(&case, &stages).map_err(|e| e.to_string())?;
-            if ks.len() != out.len() {
-                return Err(format!(
-                    "the sample has {} checked modes, the case {}",
-                    ks.len(),
-                    out.len()
-                ));
-            }
             let mut s = SampleInputs::identity();
             s.c_lat_factor = c_lat;
-            for (k, o) in ks.iter().zip(out.iter_mut()) {
-                *o = k.evaluate(&s);
+            let n = kernel::samples_direct(&case, &stages, &s, out).map_err(|e| e.to_string())?;
+            if n != out.len() {
+                return Err(format!(
+                    "the sample has {} checked modes, the case {}",
+                    n,
+                    out.len()
+                ));
             }
             if self.resistance.is_some() {
                 let rk = resistance_kernel::resistance_kernels(&case, &stages)
