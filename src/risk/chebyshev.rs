@@ -60,7 +60,7 @@ pub fn weights_at(points: &[f64], x: f64, out: &mut [f64]) {
 pub struct Adapted<T> {
     /// Degree of every panel's interpolant.
     pub degree: usize,
-    /// Panel ends, ascending: panel i is [breaks[i], breaks[i + 1]].
+    /// Panel ends, ascending: panel i runs from `breaks[i]` to `breaks[i + 1]`.
     pub breaks: Vec<f64>,
     /// The values at each panel's points (`points(degree)` mapped onto the panel).
     pub values: Vec<Vec<T>>,
