@@ -14,6 +14,8 @@
 
 use std::path::Path;
 
+mod risk_common;
+
 use stackwake::case::Case;
 use stackwake::input::{self, keypath};
 use stackwake::risk::distribution::Distribution;
@@ -79,30 +81,7 @@ fn close(a: f64, b: f64, tol: f64) -> bool {
 
 /// Per (stage, mode) in check order: (utilisation, damage) of the full check.
 fn full_check(case: &Case) -> Vec<(f64, f64)> {
-    let stages = case_modes(case).unwrap();
-    let vr = stackwake::wind::check_all(case, &stages).unwrap();
-    let rr = stackwake::resistance::actions::check_case(case, &stages, &vr, &[])
-        .unwrap()
-        .expect("the demo has [reinforcement]");
-    let mut out = Vec::new();
-    for (sv, sr) in vr.stages.iter().zip(&rr.stages) {
-        for m in &sv.modes {
-            let action = format!("vortex mode {}", m.mode);
-            let u = sr
-                .rows
-                .iter()
-                .filter(|r| r.action == action)
-                .map(|r| r.utilisation)
-                .fold(0.0, f64::max);
-            let d = sr
-                .fatigue
-                .iter()
-                .find(|f| f.mode == m.mode)
-                .map_or(0.0, |f| f.damage);
-            out.push((u, d));
-        }
-    }
-    out
+    risk_common::resistance_per_mode(case)
 }
 
 #[test]

@@ -20,6 +20,8 @@
 
 use std::path::Path;
 
+mod risk_common;
+
 use stackwake::case::Case;
 use stackwake::input::{self, keypath};
 use stackwake::risk::distribution::{Distribution, Family};
@@ -155,43 +157,22 @@ fn family_resistance_equals_the_full_check() {
         e.draw(i, &mut bits, &mut values);
         let mut msg = None;
         assert!(e.evaluate(&values, &mut out, &mut msg), "{msg:?}");
-        let edited = full(&values).unwrap();
-        let stages = case_modes(&edited).unwrap();
-        let vr = stackwake::wind::check_all(&edited, &stages).unwrap();
-        let rr = stackwake::resistance::actions::check_case(&edited, &stages, &vr, &[])
-            .unwrap()
-            .expect("the demo has [reinforcement]");
-        let mut j = 0;
-        for (sv, sr) in vr.stages.iter().zip(&rr.stages) {
-            for m in &sv.modes {
-                let action = format!("vortex mode {}", m.mode);
-                let u = sr
-                    .rows
-                    .iter()
-                    .filter(|r| r.action == action)
-                    .map(|r| r.utilisation)
-                    .fold(0.0, f64::max);
-                let d = sr
-                    .fatigue
-                    .iter()
-                    .find(|f| f.mode == m.mode)
-                    .map_or(0.0, |f| f.damage);
-                let o = &out[j];
-                assert!(close(o.vortex_utilisation, u, TOL), "{i}/{j}: {o:?} vs {u}");
-                // Damage ~ (stress range)^k2 with k2 = 9 (Table 6.3N): 9 times the
-                // relative error of the moments.
-                assert!(
-                    close(o.fatigue_damage, d, 9.0 * TOL),
-                    "{i}/{j}: {o:?} vs {d}"
-                );
-                if u > 0.0 {
-                    worst = worst.max((o.vortex_utilisation / u - 1.0).abs());
-                }
-                if d > 0.0 {
-                    damaged += 1;
-                    worst = worst.max((o.fatigue_damage / d - 1.0).abs());
-                }
-                j += 1;
+        let want = risk_common::resistance_per_mode(&full(&values).unwrap());
+        assert_eq!(want.len(), out.len());
+        for (j, (o, &(u, d))) in out.iter().zip(&want).enumerate() {
+            assert!(close(o.vortex_utilisation, u, TOL), "{i}/{j}: {o:?} vs {u}");
+            // Damage ~ (stress range)^k2 with k2 = 9 (Table 6.3N): 9 times the relative
+            // error of the moments.
+            assert!(
+                close(o.fatigue_damage, d, 9.0 * TOL),
+                "{i}/{j}: {o:?} vs {d}"
+            );
+            if u > 0.0 {
+                worst = worst.max((o.vortex_utilisation / u - 1.0).abs());
+            }
+            if d > 0.0 {
+                damaged += 1;
+                worst = worst.max((o.fatigue_damage / d - 1.0).abs());
             }
         }
     }

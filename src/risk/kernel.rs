@@ -203,18 +203,37 @@ pub fn kernels(case: &Case, stages: &[StageModes]) -> Result<Vec<ModeKernel>, Wi
     Ok(out)
 }
 
-/// The same kernels as [`kernels`] without running the whole check (about a sixth of a
-/// re-solved sample's time); the check's rules are restated in `Basics::direct`.
-pub fn kernels_direct(case: &Case, stages: &[StageModes]) -> Result<Vec<ModeKernel>, WindError> {
+/// Calls `visit` with the light kernel ([`ModeKernel::light`]) of every stage and checked
+/// mode of a re-solved case, in order, and the stage's modes and the mode; the check's rules
+/// are restated in `Basics::direct`.
+fn for_each_direct(
+    case: &Case,
+    stages: &[StageModes],
+    mut visit: impl FnMut(ModeKernel, &StageModes, &crate::modal::Mode),
+) -> Result<(), WindError> {
     let site = wind::site_wind(case, "risk")?;
-    let mut out = Vec::new();
     for (si, sm) in stages.iter().enumerate() {
         let climate = StageClimate::of(case, &sm.stage, site);
         for mode in sm.modes.iter().take(case.vortex.modes) {
             let basics = Basics::direct(case, &climate, &sm.model, mode);
-            out.push(ModeKernel::new(case, &climate, si, sm, mode, basics));
+            visit(
+                ModeKernel::light(case, &climate, si, sm, mode, basics),
+                sm,
+                mode,
+            );
         }
     }
+    Ok(())
+}
+
+/// The same kernels as [`kernels`] without running the whole check (about a sixth of a
+/// re-solved sample's time).
+pub fn kernels_direct(case: &Case, stages: &[StageModes]) -> Result<Vec<ModeKernel>, WindError> {
+    let mut out = Vec::new();
+    for_each_direct(case, stages, |mut k, sm, mode| {
+        k.complete(sm, mode);
+        out.push(k);
+    })?;
     Ok(out)
 }
 
@@ -228,22 +247,16 @@ pub fn samples_direct(
     s: &SampleInputs,
     out: &mut [ModeSample],
 ) -> Result<usize, WindError> {
-    let site = wind::site_wind(case, "risk")?;
     let mut j = 0;
-    for (si, sm) in stages.iter().enumerate() {
-        let climate = StageClimate::of(case, &sm.stage, site);
-        for mode in sm.modes.iter().take(case.vortex.modes) {
-            let basics = Basics::direct(case, &climate, &sm.model, mode);
-            let mut k = ModeKernel::light(case, &climate, si, sm, mode, basics);
-            if !k.screened(s) {
-                k.complete(sm, mode);
-            }
-            if let Some(o) = out.get_mut(j) {
-                *o = k.evaluate(s);
-            }
-            j += 1;
+    for_each_direct(case, stages, |mut k, sm, mode| {
+        if !k.screened(s) {
+            k.complete(sm, mode);
         }
-    }
+        if let Some(o) = out.get_mut(j) {
+            *o = k.evaluate(s);
+        }
+        j += 1;
+    })?;
     Ok(j)
 }
 

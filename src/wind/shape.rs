@@ -113,6 +113,26 @@ impl<'a> ModeShape<'a> {
         self.eval(e, ((z_m - za) / (zb - za)).clamp(0.0, 1.0))
     }
 
+    /// Calls `visit(e, za, lo, hi)` for each element e that overlaps [a, b] (clipped to the
+    /// structure), with the element's base height za and the overlap [lo, hi] (lo < hi).
+    fn pieces(&self, a_m: f64, b_m: f64, mut visit: impl FnMut(usize, f64, f64, f64)) {
+        let a = a_m.max(self.z_m[0]);
+        let b = b_m.min(self.height_m());
+        if b <= a {
+            return;
+        }
+        for e in self.element_at(a)..self.elements() {
+            let (za, zb) = (self.z_m[e], self.z_m[e + 1]);
+            if za >= b {
+                break;
+            }
+            let (lo, hi) = (a.max(za), b.min(zb));
+            if hi > lo {
+                visit(e, za, lo, hi);
+            }
+        }
+    }
+
     /// Integral over [a, b] (clipped to the structure) of f(element, t, z, Phi) dz.
     pub fn integrate(
         &self,
@@ -120,29 +140,15 @@ impl<'a> ModeShape<'a> {
         b_m: f64,
         mut f: impl FnMut(usize, f64, f64, f64) -> f64,
     ) -> f64 {
-        let a = a_m.max(self.z_m[0]);
-        let b = b_m.min(self.height_m());
-        if b <= a {
-            return 0.0;
-        }
         let mut sum = 0.0;
-        for e in self.element_at(a)..self.elements() {
-            let (za, zb) = (self.z_m[e], self.z_m[e + 1]);
-            if za >= b {
-                break;
-            }
-            let lo = a.max(za);
-            let hi = b.min(zb);
-            if hi <= lo {
-                continue;
-            }
-            let len = zb - za;
+        self.pieces(a_m, b_m, |e, za, lo, hi| {
+            let len = self.z_m[e + 1] - za;
             for &(x, w) in &GAUSS4 {
                 let z = lo + (hi - lo) * x;
                 let t = (z - za) / len;
                 sum += w * (hi - lo) * f(e, t, z, self.eval(e, t));
             }
-        }
+        });
         sum
     }
 
@@ -152,22 +158,9 @@ impl<'a> ModeShape<'a> {
     /// past a point: K and K_W would then not be smooth functions of the structure, which
     /// the risk family over the shell stiffness needs.)
     pub fn integral_abs(&self, a_m: f64, b_m: f64) -> f64 {
-        let a = a_m.max(self.z_m[0]);
-        let b = b_m.min(self.height_m());
-        if b <= a {
-            return 0.0;
-        }
         let mut sum = 0.0;
-        for e in self.element_at(a)..self.elements() {
-            let (za, zb) = (self.z_m[e], self.z_m[e + 1]);
-            if za >= b {
-                break;
-            }
-            let (lo, hi) = (a.max(za), b.min(zb));
-            if hi <= lo {
-                continue;
-            }
-            let len = zb - za;
+        self.pieces(a_m, b_m, |e, za, lo, hi| {
+            let len = self.z_m[e + 1] - za;
             let (t_lo, t_hi) = ((lo - za) / len, (hi - za) / len);
             if let Some(sign) = self.one_sign(e) {
                 // No root in the element: |Phi| = sign Phi, a polynomial (the usual case).
@@ -175,7 +168,7 @@ impl<'a> ModeShape<'a> {
                     let t = t_lo + (t_hi - t_lo) * x;
                     sum += g * (t_hi - t_lo) * len * sign * self.eval(e, t);
                 }
-                continue;
+                return;
             }
             let mut cuts = [0.0; 8];
             let n = self.sign_changes(e, t_lo, t_hi, &mut cuts);
@@ -185,7 +178,7 @@ impl<'a> ModeShape<'a> {
                     sum += g * (w[1] - w[0]) * len * self.eval(e, t).abs();
                 }
             }
-        }
+        });
         sum
     }
 

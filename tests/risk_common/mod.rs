@@ -94,3 +94,33 @@ pub fn spearman(x: &[f64], y: &[f64]) -> f64 {
     }
     sxy / (sxx * syy).sqrt()
 }
+
+/// Per (stage, mode) in check order: (vortex utilisation, fatigue damage) of the full
+/// `check` of `case` (the `vortex mode N` rows of resistance.csv, EN 1992-1-1 6.1, and the
+/// mode's fatigue row, 6.8.4): the reference of the risk resistance tests.
+pub fn resistance_per_mode(case: &stackwake::case::Case) -> Vec<(f64, f64)> {
+    let stages = stackwake::risk::case_modes(case).unwrap();
+    let vr = stackwake::wind::check_all(case, &stages).unwrap();
+    let rr = stackwake::resistance::actions::check_case(case, &stages, &vr, &[])
+        .unwrap()
+        .expect("the case has [reinforcement]");
+    let mut out = Vec::new();
+    for (sv, sr) in vr.stages.iter().zip(&rr.stages) {
+        for m in &sv.modes {
+            let action = format!("vortex mode {}", m.mode);
+            let u = sr
+                .rows
+                .iter()
+                .filter(|r| r.action == action)
+                .map(|r| r.utilisation)
+                .fold(0.0, f64::max);
+            let d = sr
+                .fatigue
+                .iter()
+                .find(|f| f.mode == m.mode)
+                .map_or(0.0, |f| f.damage);
+            out.push((u, d));
+        }
+    }
+    out
+}
