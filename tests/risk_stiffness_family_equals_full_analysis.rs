@@ -7,10 +7,10 @@
 //! 6.8.4).
 //!
 //! The reference is the project's own full analysis; what is checked is that skipping the
-//! eigen-solve changes nothing that matters. Tolerance 1e-6 relative: the family is built
-//! to a deviation of at most 1e-7 from full solves (stiffness_family::TOLERANCE, the
-//! eigen-solver's own convergence level, where its shapes jump as its iteration count
-//! changes), and the Annex E chain amplifies a relative input error by a small factor
+//! eigen-solve changes nothing that matters. Tolerance 3e-6 relative: the family is built
+//! to a deviation of at most 3e-7 from full solves (stiffness_family::TOLERANCE, a few
+//! times the eigen-solver's own convergence level, where its shapes jump as its iteration
+//! count changes), and the Annex E chain amplifies a relative input error by a small factor
 //! (amplitude ~ 1 / Sc and K_W; stresses ~ n^2): 10 is allowed. Away from those jumps the
 //! agreement is at rounding level; the test prints the measured worst (about 4e-14 for
 //! the modal results and 7e-13 for utilisation and damage when written).
@@ -28,7 +28,7 @@ use stackwake::risk::distribution::{Distribution, Family};
 use stackwake::risk::kernel::{self, ModeSample};
 use stackwake::risk::{case_modes, role_of, Engine, Role, Scaling, UncertainInput};
 
-const TOL: f64 = 1e-6;
+const TOL: f64 = 3e-6;
 
 fn table(method: &str) -> toml::Table {
     let mut t = input::parse_case_text(input::DEMO_CASE_TOML, "demo").unwrap();

@@ -158,8 +158,8 @@ fn stiffness_family_section(s: &mut String, h: &RiskHeader) {
              1 - {}), and each sample's frequencies, shapes, equivalent masses, K, K_W and \
              unit load curves are interpolated in ln s: {} panel(s) of degree {} Chebyshev \
              interpolation. The largest relative deviation of a half-degree interpolant from \
-             the full solves at its check points was {} (accepted up to {}, the eigen-solver's \
-             own convergence level). Away from the solver's own small jumps (where its \
+             the full solves at its check points was {} (accepted up to {}, a few times the \
+             eigen-solver's own convergence level). Away from the solver's own small jumps (where its \
              iteration count changes) the kept interpolants are more accurate than that. A \
              sample outside the interval is solved in full.</p>",
             f.solves,

@@ -27,10 +27,11 @@
 //!
 //! Accuracy: the solver stops each mode at a relative residual of 1e-7, so the shapes of
 //! two full solves at nearby E agree only to about the solver's convergence level (the
-//! eigenvalues far better), and jump by a few 1e-8 where its iteration count changes.
-//! [`TOLERANCE`] is that level: a sample through the family differs from its own full
-//! solve by no more than two full solves differ from the exact discrete eigenvectors. The
-//! tests compare samples through the family with the full check of the edited case.
+//! eigenvalues far better), and jump by up to about 1e-7 where its iteration count
+//! changes. [`TOLERANCE`] is a few times that level: a sample through the family differs
+//! from its own full solve by about as much as a full solve may differ from the exact
+//! discrete eigenvectors. The tests compare samples through the family with the full check
+//! of the edited case.
 //!
 //! Smoothness of the fields: the shapes are piecewise cubic (Hermite elements), so an
 //! integral of |Phi| is only twice differentiable in s where a root of Phi crosses a node,
@@ -50,10 +51,11 @@ use crate::case::Case;
 
 /// Largest accepted relative deviation of a panel's half-degree interpolant at its other
 /// points (every field of every mode and stage; vectors relative to their largest entry).
-/// The eigen-solver's own level: it stops each mode at a relative residual of 1e-7, and
-/// where its iteration count changes between two stiffnesses the shapes jump by a few
-/// 1e-8 (measured on the demo), so no interpolant of full solves can be held tighter.
-pub const TOLERANCE: f64 = 1e-7;
+/// A few times the eigen-solver's own level: it stops each mode at a relative residual of
+/// 1e-7, and where its iteration count changes between two stiffnesses the shapes jump
+/// (measured on the demo: 5e-8 to 1e-7), so no interpolant of full solves can be held
+/// much tighter, and a tolerance at the jump size would send runs to the re-solve path.
+pub const TOLERANCE: f64 = 3e-7;
 /// Degree of each panel's interpolant (17 solves per panel).
 pub const DEGREE: usize = 16;
 /// Most panels before the family is given up.
