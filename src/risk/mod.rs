@@ -6,9 +6,11 @@
 //!   so a sample is the same whichever shard or thread computes it.
 //! - Samples that change only E, a stage's stiffness factor, the structural damping, the
 //!   Strouhal number, c_lat or the reference wind speed reuse the case's modes
-//!   ([`kernel`]: frequencies scale as sqrt of the stiffness factor, shapes unchanged);
-//!   samples that change anything else (masses, geometry, springs, other keys) are written
-//!   into the case file's table, validated and re-solved by the caller's `full` function.
+//!   ([`kernel`]: frequencies scale as sqrt of the stiffness factor, shapes unchanged); on
+//!   base springs E and the stiffness factors take their modes from the
+//!   [`stiffness_family`] (full solves interpolated over the shell stiffness); samples that
+//!   change anything else (masses, geometry, springs, other keys) are written into the case
+//!   file's table, validated and re-solved by the caller's `full` function.
 //! - Statistics ([`stats`]) are exact integers, so any split of the samples gives
 //!   bit-identical merged numbers.
 //! - Influence ([`Accumulator::influence`]): the correlation between each input's
