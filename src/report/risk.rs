@@ -51,6 +51,30 @@ pub struct RiskRow {
     pub event: Option<usize>,
 }
 
+/// A row of sketch `i` of `a` (mean and percentiles) with its event's probability and
+/// standard error; `text` = (stage, mode, quantity).
+fn sketch_row(
+    text: (String, String, String),
+    a: &Accumulator,
+    i: usize,
+    (p, se): (Option<f64>, Option<f64>),
+    event: usize,
+) -> RiskRow {
+    let sk = &a.sketches[i];
+    RiskRow {
+        stage: text.0,
+        mode: text.1,
+        quantity: text.2,
+        mean: (sk.total > 0).then(|| a.mean_at(i)),
+        p05: sk.quantile(0.05),
+        p50: sk.quantile(0.50),
+        p95: sk.quantile(0.95),
+        probability_exceeding: p,
+        standard_error: se,
+        event: Some(event),
+    }
+}
+
 /// Every row, in risk.csv order.
 pub fn rows(h: &RiskHeader, a: &Accumulator) -> Vec<RiskRow> {
     let mut out = Vec::new();
@@ -88,21 +112,9 @@ pub fn rows(h: &RiskHeader, a: &Accumulator) -> Vec<RiskRow> {
             let modes = h.modes.len();
             for (q, name) in RESISTANCE_QUANTITIES.iter().enumerate() {
                 let i = resistance_quantity(modes, j, q);
-                let sk = &a.sketches[i];
                 let event = resistance_event(modes, h.stages.len(), j, q);
-                let (p, se) = prob(event);
-                out.push(RiskRow {
-                    stage: m.stage.clone(),
-                    mode: m.mode.to_string(),
-                    quantity: name.to_string(),
-                    mean: (sk.total > 0).then(|| a.mean_at(i)),
-                    p05: sk.quantile(0.05),
-                    p50: sk.quantile(0.50),
-                    p95: sk.quantile(0.95),
-                    probability_exceeding: p,
-                    standard_error: se,
-                    event: Some(event),
-                });
+                let text = (m.stage.clone(), m.mode.to_string(), name.to_string());
+                out.push(sketch_row(text, a, i, prob(event), event));
             }
         }
         for (e, name) in MODE_EVENTS.iter().enumerate() {
@@ -129,26 +141,15 @@ pub fn rows(h: &RiskHeader, a: &Accumulator) -> Vec<RiskRow> {
         let (modes, stages) = (h.modes.len(), h.stages.len());
         for s in 0..=stages {
             let i = stage_damage_quantity(modes, s);
-            let sk = &a.sketches[i];
             let event = stage_damage_event(modes, stages, s);
-            let (p, se) = prob(event);
-            out.push(RiskRow {
-                stage: h.stages.get(s).cloned().unwrap_or_default(),
-                mode: String::new(),
-                quantity: if s < stages {
-                    STAGE_DAMAGE_QUANTITY
-                } else {
-                    TOTAL_DAMAGE_QUANTITY
-                }
-                .into(),
-                mean: (sk.total > 0).then(|| a.mean_at(i)),
-                p05: sk.quantile(0.05),
-                p50: sk.quantile(0.50),
-                p95: sk.quantile(0.95),
-                probability_exceeding: p,
-                standard_error: se,
-                event: Some(event),
-            });
+            let quantity = if s < stages {
+                STAGE_DAMAGE_QUANTITY
+            } else {
+                TOTAL_DAMAGE_QUANTITY
+            };
+            let stage = h.stages.get(s).cloned().unwrap_or_default();
+            let text = (stage, String::new(), quantity.to_string());
+            out.push(sketch_row(text, a, i, prob(event), event));
         }
     }
     if h.judged {
